@@ -1,0 +1,338 @@
+package bounds
+
+import (
+	"fmt"
+	"math"
+	"strconv"
+)
+
+// Decay names the shape of an envelope term.
+type Decay int
+
+const (
+	// Exponential decay A·e^{-α|x-c|}. As a spectral envelope it describes
+	// a function analytic in the strip |Im z| < α.
+	Exponential Decay = iota + 1
+	// Gaussian decay A·e^{-(x-c)²/(2σ²)}.
+	Gaussian
+	// Algebraic decay A·(1+|x-c|/ℓ)^{-q}, q > 1. As a spectral envelope it
+	// describes finite smoothness (about q-1 integrable derivatives).
+	Algebraic
+	// Compact support: at most A for |x-c| ≤ R and 0 beyond. As a spectral
+	// envelope it is a band limit R.
+	Compact
+)
+
+func (d Decay) String() string {
+	switch d {
+	case Exponential:
+		return "exponential"
+	case Gaussian:
+		return "gaussian"
+	case Algebraic:
+		return "algebraic"
+	case Compact:
+		return "compact"
+	}
+	return "Decay(" + strconv.Itoa(int(d)) + ")"
+}
+
+// EnvelopeTerm is one decaying bump A·g(max(0, |x - c| - p)): flat at
+// height A within the plateau p of its centre c, decaying beyond it. Which
+// shape parameters are used depends on Decay:
+//
+//	Exponential  Rate α > 0
+//	Gaussian     Width σ > 0
+//	Algebraic    Width ℓ > 0, Power q > 1
+//	Compact      Width R ≥ 0 (half-width of the support or band)
+//
+// The plateau also absorbs rounding: when a centre is moved or scaled, the
+// rounding error of the new centre is added to the plateau, so the
+// envelope stays an upper bound.
+type EnvelopeTerm struct {
+	Decay     Decay
+	Amplitude float64 // A ≥ 0
+	Center    float64 // c
+	Plateau   float64 // p ≥ 0
+	Rate      float64 // α, exponential only
+	Width     float64 // σ, ℓ or R
+	Power     float64 // q, algebraic only
+}
+
+// Envelope bounds a function's modulus by a finite sum of terms:
+// |g(x)| ≤ Σ_j term_j(x). An empty envelope means g ≡ 0.
+type Envelope []EnvelopeTerm
+
+func (t EnvelopeTerm) String() string {
+	switch t.Decay {
+	case Exponential:
+		return fmt.Sprintf("%g·exp(-%g|x-%g|)", t.Amplitude, t.Rate, t.Center)
+	case Gaussian:
+		return fmt.Sprintf("%g·exp(-(x-%g)²/(2·%g²))", t.Amplitude, t.Center, t.Width)
+	case Algebraic:
+		return fmt.Sprintf("%g·(1+|x-%g|/%g)^-%g", t.Amplitude, t.Center, t.Width, t.Power)
+	case Compact:
+		return fmt.Sprintf("%g·[|x-%g| ≤ %g]", t.Amplitude, t.Center, t.Width)
+	}
+	return t.Decay.String()
+}
+
+func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
+
+// Validate checks every term; path prefixes the parameter names in errors,
+// as in "spectral[0].rate".
+func (e Envelope) Validate(path string) error {
+	for i, t := range e {
+		p := fmt.Sprintf("%s[%d]", path, i)
+		if !finite(t.Amplitude) || t.Amplitude < 0 {
+			return invalidf(p+".amplitude", "must be finite and ≥ 0, got %g", t.Amplitude)
+		}
+		if !finite(t.Center) {
+			return invalidf(p+".center", "must be finite, got %g", t.Center)
+		}
+		if !finite(t.Plateau) || t.Plateau < 0 {
+			return invalidf(p+".plateau", "must be finite and ≥ 0, got %g", t.Plateau)
+		}
+		switch t.Decay {
+		case Exponential:
+			if !finite(t.Rate) || t.Rate <= 0 {
+				return invalidf(p+".rate", "must be finite and > 0, got %g", t.Rate)
+			}
+		case Gaussian:
+			if !finite(t.Width) || t.Width <= 0 {
+				return invalidf(p+".width", "must be finite and > 0, got %g", t.Width)
+			}
+		case Algebraic:
+			if !finite(t.Width) || t.Width <= 0 {
+				return invalidf(p+".width", "must be finite and > 0, got %g", t.Width)
+			}
+			if !finite(t.Power) || t.Power <= 1 {
+				return invalidf(p+".power", "must be finite and > 1 for a summable tail, got %g", t.Power)
+			}
+		case Compact:
+			if !finite(t.Width) || t.Width < 0 {
+				return invalidf(p+".width", "must be finite and ≥ 0, got %g", t.Width)
+			}
+		default:
+			return invalidf(p+".decay", "unknown decay %d", int(t.Decay))
+		}
+	}
+	return nil
+}
+
+// Shifted returns the envelope of g(x - c) given the envelope e of g:
+// centres move by c, and any rounding of a new centre joins its plateau.
+func (e Envelope) Shifted(c float64) Envelope {
+	out := make(Envelope, len(e))
+	for i, t := range e {
+		nc := t.Center + c
+		t.Plateau = addUp(t.Plateau, math.Abs(twoSumErr(t.Center, c, nc)))
+		t.Center = nc
+		out[i] = t
+	}
+	return out
+}
+
+// Scaled returns the envelope with every amplitude multiplied by k ≥ 0,
+// rounded upward.
+func (e Envelope) Scaled(k float64) Envelope {
+	out := make(Envelope, len(e))
+	for i, t := range e {
+		t.Amplitude = mulUp(t.Amplitude, k)
+		out[i] = t
+	}
+	return out
+}
+
+// Dilated returns the envelope of g(x/a) given the envelope e of g, for
+// a > 0: centres, plateaus and widths scale by a, rates by 1/a, and any
+// rounding of a new centre joins its plateau.
+func (e Envelope) Dilated(a float64) Envelope {
+	out := make(Envelope, len(e))
+	for i, t := range e {
+		nc := t.Center * a
+		t.Plateau = addUp(mulUp(t.Plateau, a), math.Abs(math.FMA(t.Center, a, -nc)))
+		t.Center = nc
+		switch t.Decay {
+		case Exponential:
+			t.Rate = divDown(t.Rate, a)
+		case Gaussian, Algebraic:
+			t.Width = mulDown(t.Width, a)
+		case Compact:
+			t.Width = mulUp(t.Width, a)
+		}
+		out[i] = t
+	}
+	return out
+}
+
+// twoSumErr returns the exact rounding error (a + b) - s of s = RN(a + b)
+// (Knuth's TwoSum).
+func twoSumErr(a, b, s float64) float64 {
+	bb := s - a
+	return (a - (s - bb)) + (b - bb)
+}
+
+// Plus returns the envelope of a sum: the terms of both.
+func (e Envelope) Plus(f Envelope) Envelope {
+	out := make(Envelope, 0, len(e)+len(f))
+	return append(append(out, e...), f...)
+}
+
+// dist encloses |x - c| for x in the interval.
+func dist(x Interval, c float64) Interval {
+	return x.AddFloat(-c).Abs()
+}
+
+// at returns an upper bound of the term over distances d ≥ dLo ≥ 0.
+func (t EnvelopeTerm) at(dLo float64) float64 {
+	dLo = addDown(dLo, -t.Plateau)
+	if dLo < 0 {
+		dLo = 0
+	}
+	d := Point(dLo)
+	A := t.Amplitude
+	switch t.Decay {
+	case Exponential:
+		return mulUp(A, Exp(d.Scale(-t.Rate)).Hi)
+	case Gaussian:
+		u := d.Div(Point(t.Width)).Sqr().Scale(-0.5)
+		return mulUp(A, Exp(u).Hi)
+	case Algebraic:
+		base := d.Div(Point(t.Width)).AddFloat(1)
+		return mulUp(A, Pow(base, -t.Power).Hi)
+	case Compact:
+		if dLo > t.Width {
+			return 0
+		}
+		return A
+	}
+	return math.Inf(1)
+}
+
+// At returns an upper bound of the envelope over every point of x.
+func (e Envelope) At(x Interval) float64 {
+	s := 0.0
+	for _, t := range e {
+		s = addUp(s, t.at(dist(x, t.Center).Lo))
+	}
+	return s
+}
+
+// rayFrom returns B(x0) ≥ Σ_{j≥0} g(x0 + j·h) for x0 > 0, h > 0, where g is
+// the term's profile (with its amplitude):
+//
+//	Exponential  e^{-αx0} / (1 - e^{-αh})                         (exact)
+//	Gaussian     min{ g(x0)/(1-ρ), g(x0) + σ√(π/2)·erfc(x0/(σ√2))/h },
+//	             ρ = exp(-(2x0h + h²)/(2σ²))
+//	Algebraic    a^{-q} + a^{1-q}/(c(q-1)),  a = 1 + x0/ℓ, c = h/ℓ
+//	Compact      ⌊(R - x0)/h⌋ + 1 points if x0 ≤ R, else 0
+//
+// The Gaussian bound takes the ratio of consecutive terms, which decreases
+// along the ray, and the integral comparison for a decreasing g; the
+// algebraic one is the integral comparison. Both are in math.md
+// ("Envelopes and their bounds").
+func (t EnvelopeTerm) rayFrom(x0, h float64) float64 {
+	A := t.Amplitude
+	if A == 0 {
+		return 0
+	}
+	X := Point(x0)
+	H := Point(h)
+	switch t.Decay {
+	case Exponential:
+		num := Exp(X.Scale(-t.Rate))
+		den := Expm1(H.Scale(-t.Rate)).Neg() // 1 - e^{-αh} > 0
+		return mulUp(A, num.Div(den).Hi)
+	case Gaussian:
+		s := Point(t.Width)
+		g0 := Exp(X.Div(s).Sqr().Scale(-0.5))
+		// 1 - ρ = -expm1(-(2x0h+h²)/(2σ²))
+		expo := X.Scale(2).Mul(H).Add(H.Sqr()).Div(s.Sqr().Scale(2))
+		oneMinusRho := Expm1(expo.Neg()).Neg()
+		b1 := g0.Div(oneMinusRho).Hi
+		// σ√(π/2)·erfc(x0/(σ√2))/h
+		sqrtHalfPi := Sqrt(Pi.Scale(0.5))
+		integral := s.Mul(sqrtHalfPi).Mul(Erfc(X.Div(s.Mul(Sqrt(Point(2)))))).Div(H)
+		b2 := g0.Add(integral).Hi
+		return mulUp(A, math.Min(b1, b2))
+	case Algebraic:
+		l := Point(t.Width)
+		a := X.Div(l).AddFloat(1)
+		c := H.Div(l)
+		first := Pow(a, -t.Power)            // a^{-q}
+		qm1 := Point(t.Power).AddFloat(-1)   // q - 1, enclosed
+		rest := a.Mul(first).Div(c.Mul(qm1)) // a^{1-q}/(c(q-1))
+		return mulUp(A, first.Add(rest).Hi)
+	case Compact:
+		if x0 > t.Width {
+			return 0
+		}
+		n := math.Floor(divUp(addUp(t.Width, -x0), h)) + 1
+		return mulUp(A, n)
+	}
+	return math.Inf(1)
+}
+
+// tail returns U(d), an upper bound, valid for every d' ≥ d, on the ray sum
+//
+//	S(d') = Σ_{j≥0} A·g(max(0, |d' + j·h| - p)).
+//
+// Beyond the plateau (d > p) the sum is decreasing in d, so U(d) = B(d-p).
+// Otherwise the ray crosses the centre. Without a plateau, its points left of
+// the centre are at distances e, e+h, … with e ∈ [0, h) and those right of it
+// at h-e, 2h-e, …; one of e, h-e is at least h/2, so
+//
+//	S ≤ S(0) + S(h/2) ≤ g(0) + B(h) + B(h/2).
+//
+// With a plateau, at most ⌊2p/h⌋+1 points lie on it, and the points on
+// either side of it form rays whose reduced distances start in [0, h), so
+//
+//	S ≤ (⌊2p/h⌋ + 3)·g(0) + 2·B(h).
+//
+// Taking U(d) = min(B(d-p), C) for d > p, with C the constant above, keeps U
+// non-increasing.
+func (t EnvelopeTerm) tail(d, h float64) float64 {
+	g0 := t.at(0)
+	var c float64
+	if t.Plateau == 0 {
+		c = addUp(addUp(g0, t.rayFrom(h, h)), t.rayFrom(h/2, h))
+	} else {
+		n := math.Floor(divUp(mulUp(2, t.Plateau), h)) + 3
+		c = addUp(mulUp(n, g0), mulUp(2, t.rayFrom(h, h)))
+	}
+	d = addDown(d, -t.Plateau)
+	if d <= 0 {
+		return c
+	}
+	return math.Min(t.rayFrom(d, h), c)
+}
+
+// RayTail returns an upper bound, valid for every start point x0 in the
+// interval, on the envelope summed along the ray x0, x0+dir·h, x0+2·dir·h, …
+// (dir = +1 walks right, -1 walks left):
+//
+//	Σ_{j≥0} Σ_terms g(|x0 + dir·j·h - c|).
+//
+// It is +Inf if a term's tail is not summable.
+func (e Envelope) RayTail(x0 Interval, dir int, h float64) float64 {
+	s := 0.0
+	for _, t := range e {
+		// Signed distance of the start from the centre, measured along the
+		// ray; the worst case over x0 is the smallest.
+		var d float64
+		if dir >= 0 {
+			d = x0.AddFloat(-t.Center).Lo
+		} else {
+			d = x0.AddFloat(-t.Center).Neg().Lo
+		}
+		s = addUp(s, t.tail(d, h))
+	}
+	return s
+}
+
+// LatticeSum returns an upper bound on Σ_{k∈Z} env(x0 + k·h) valid for
+// every x0 in the interval.
+func (e Envelope) LatticeSum(x0 Interval, h float64) float64 {
+	return addUp(e.RayTail(x0, 1, h), e.RayTail(x0.AddFloat(-h), -1, h))
+}

@@ -1,0 +1,234 @@
+package bounds
+
+import (
+	"fmt"
+	"math"
+)
+
+// Interval is a closed interval [Lo, Hi] of real numbers. Every operation on
+// intervals rounds outward, so the result contains the exact result of the
+// operation applied to any points of the operands (see "Accuracy" in the
+// package documentation).
+//
+// The zero value is the point 0. An interval with Lo > Hi, or with a NaN
+// endpoint, is not valid; operations never produce one from valid operands.
+// Endpoints may be infinite after overflow; IsFinite reports this.
+type Interval struct {
+	Lo, Hi float64
+}
+
+// Point returns the degenerate interval [x, x].
+func Point(x float64) Interval { return Interval{x, x} }
+
+// Span returns the interval [lo, hi], swapping the endpoints if needed.
+func Span(lo, hi float64) Interval {
+	if lo > hi {
+		lo, hi = hi, lo
+	}
+	return Interval{lo, hi}
+}
+
+// Entire is the interval (-∞, +∞).
+var entire = Interval{math.Inf(-1), math.Inf(1)}
+
+// Entire returns the interval (-∞, +∞), the result of operations whose
+// range cannot be bounded, such as division by an interval containing zero.
+func Entire() Interval { return entire }
+
+// String formats x as [lo, hi] with 17 significant digits.
+func (x Interval) String() string {
+	return fmt.Sprintf("[%.17g, %.17g]", x.Lo, x.Hi)
+}
+
+// IsFinite reports whether both endpoints are finite numbers.
+func (x Interval) IsFinite() bool {
+	return !math.IsInf(x.Lo, 0) && !math.IsInf(x.Hi, 0) && !math.IsNaN(x.Lo) && !math.IsNaN(x.Hi)
+}
+
+// Contains reports whether v lies in x.
+func (x Interval) Contains(v float64) bool { return x.Lo <= v && v <= x.Hi }
+
+// ContainsInterval reports whether y ⊆ x.
+func (x Interval) ContainsInterval(y Interval) bool { return x.Lo <= y.Lo && y.Hi <= x.Hi }
+
+// ContainsZero reports whether 0 lies in x.
+func (x Interval) ContainsZero() bool { return x.Lo <= 0 && 0 <= x.Hi }
+
+// Mid returns a point of x near its middle (exactly representable).
+func (x Interval) Mid() float64 {
+	if x.Lo == x.Hi {
+		return x.Lo
+	}
+	m := 0.5*x.Lo + 0.5*x.Hi
+	if math.IsInf(m, 0) || math.IsNaN(m) {
+		switch {
+		case math.IsInf(x.Lo, -1) && math.IsInf(x.Hi, 1):
+			return 0
+		case math.IsInf(x.Lo, -1):
+			return -math.MaxFloat64
+		case math.IsInf(x.Hi, 1):
+			return math.MaxFloat64
+		}
+	}
+	return m
+}
+
+// Width returns an upper bound on Hi - Lo.
+func (x Interval) Width() float64 { return addUp(x.Hi, -x.Lo) }
+
+// Mag returns max |v| over v in x (the magnitude), an exact value.
+func (x Interval) Mag() float64 { return math.Max(math.Abs(x.Lo), math.Abs(x.Hi)) }
+
+// Mig returns min |v| over v in x (the mignitude), an exact value.
+func (x Interval) Mig() float64 {
+	if x.ContainsZero() {
+		return 0
+	}
+	return math.Min(math.Abs(x.Lo), math.Abs(x.Hi))
+}
+
+// RelWidth returns an upper bound on the width of x relative to its
+// magnitude, (Hi-Lo)/Mag; 0 for the point 0.
+func (x Interval) RelWidth() float64 {
+	m := x.Mag()
+	if m == 0 {
+		return 0
+	}
+	return divUp(x.Width(), m)
+}
+
+// Hull returns the smallest interval containing x and y.
+func (x Interval) Hull(y Interval) Interval {
+	return Interval{math.Min(x.Lo, y.Lo), math.Max(x.Hi, y.Hi)}
+}
+
+// Intersect returns x ∩ y and whether it is non-empty.
+func (x Interval) Intersect(y Interval) (Interval, bool) {
+	z := Interval{math.Max(x.Lo, y.Lo), math.Min(x.Hi, y.Hi)}
+	return z, z.Lo <= z.Hi
+}
+
+// Neg returns -x (exact).
+func (x Interval) Neg() Interval { return Interval{-x.Hi, -x.Lo} }
+
+// Abs returns {|v| : v in x} (exact).
+func (x Interval) Abs() Interval {
+	switch {
+	case x.Lo >= 0:
+		return x
+	case x.Hi <= 0:
+		return x.Neg()
+	default:
+		return Interval{0, math.Max(-x.Lo, x.Hi)}
+	}
+}
+
+// Add returns x + y.
+func (x Interval) Add(y Interval) Interval {
+	return Interval{addDown(x.Lo, y.Lo), addUp(x.Hi, y.Hi)}
+}
+
+// Sub returns x - y.
+func (x Interval) Sub(y Interval) Interval {
+	return Interval{addDown(x.Lo, -y.Hi), addUp(x.Hi, -y.Lo)}
+}
+
+// AddFloat returns x + v.
+func (x Interval) AddFloat(v float64) Interval {
+	return Interval{addDown(x.Lo, v), addUp(x.Hi, v)}
+}
+
+// Mul returns x * y. A zero endpoint times an infinite one counts as zero,
+// as in IEEE 1788 interval arithmetic, so no NaN arises.
+func (x Interval) Mul(y Interval) Interval {
+	// Fast paths for the common sign patterns.
+	switch {
+	case x.Lo >= 0 && y.Lo >= 0:
+		return Interval{mulDown(x.Lo, y.Lo), mulUp(x.Hi, y.Hi)}
+	case x.Hi <= 0 && y.Hi <= 0:
+		return Interval{mulDown(x.Hi, y.Hi), mulUp(x.Lo, y.Lo)}
+	case x.Lo >= 0 && y.Hi <= 0:
+		return Interval{mulDown(x.Hi, y.Lo), mulUp(x.Lo, y.Hi)}
+	case x.Hi <= 0 && y.Lo >= 0:
+		return Interval{mulDown(x.Lo, y.Hi), mulUp(x.Hi, y.Lo)}
+	}
+	lo := math.Min(math.Min(mulDown(x.Lo, y.Lo), mulDown(x.Lo, y.Hi)),
+		math.Min(mulDown(x.Hi, y.Lo), mulDown(x.Hi, y.Hi)))
+	hi := math.Max(math.Max(mulUp(x.Lo, y.Lo), mulUp(x.Lo, y.Hi)),
+		math.Max(mulUp(x.Hi, y.Lo), mulUp(x.Hi, y.Hi)))
+	return Interval{lo, hi}
+}
+
+// Scale returns v * x for a float64 v.
+func (x Interval) Scale(v float64) Interval {
+	if v >= 0 {
+		return Interval{mulDown(x.Lo, v), mulUp(x.Hi, v)}
+	}
+	return Interval{mulDown(x.Hi, v), mulUp(x.Lo, v)}
+}
+
+// Sqr returns {v² : v in x}, tighter than x.Mul(x) when x contains 0.
+func (x Interval) Sqr() Interval {
+	a := x.Abs()
+	return Interval{mulDown(a.Lo, a.Lo), mulUp(a.Hi, a.Hi)}
+}
+
+// Div returns x / y. If y contains 0 the result is Entire.
+func (x Interval) Div(y Interval) Interval {
+	if y.ContainsZero() {
+		return entire
+	}
+	lo := math.Min(math.Min(divDown(x.Lo, y.Lo), divDown(x.Lo, y.Hi)),
+		math.Min(divDown(x.Hi, y.Lo), divDown(x.Hi, y.Hi)))
+	hi := math.Max(math.Max(divUp(x.Lo, y.Lo), divUp(x.Lo, y.Hi)),
+		math.Max(divUp(x.Hi, y.Lo), divUp(x.Hi, y.Hi)))
+	return Interval{lo, hi}
+}
+
+// Recip returns 1 / x. If x contains 0 the result is Entire.
+func (x Interval) Recip() Interval {
+	if x.ContainsZero() {
+		return entire
+	}
+	return Interval{divDown(1, x.Hi), divUp(1, x.Lo)}
+}
+
+// Max returns {max(u, v) : u in x, v in y}.
+func (x Interval) Max(y Interval) Interval {
+	return Interval{math.Max(x.Lo, y.Lo), math.Max(x.Hi, y.Hi)}
+}
+
+// Min returns {min(u, v) : u in x, v in y}.
+func (x Interval) Min(y Interval) Interval {
+	return Interval{math.Min(x.Lo, y.Lo), math.Min(x.Hi, y.Hi)}
+}
+
+// IntPow returns x^n for an integer n ≥ 0. The power is monotone on each
+// endpoint's side, so it is evaluated at the endpoints by repeated squaring
+// in interval arithmetic.
+func (x Interval) IntPow(n int) Interval {
+	if n <= 0 {
+		return Point(1)
+	}
+	if n%2 == 0 {
+		a := x.Abs()
+		return Interval{powPoint(a.Lo, n).Lo, powPoint(a.Hi, n).Hi}
+	}
+	return Interval{powPoint(x.Lo, n).Lo, powPoint(x.Hi, n).Hi}
+}
+
+// powPoint encloses v^n by binary powering.
+func powPoint(v float64, n int) Interval {
+	r := Point(1)
+	b := Point(v)
+	for {
+		if n&1 == 1 {
+			r = r.Mul(b)
+		}
+		n >>= 1
+		if n == 0 {
+			return r
+		}
+		b = b.Mul(b)
+	}
+}
