@@ -66,15 +66,22 @@ type Envelope []EnvelopeTerm
 func (t EnvelopeTerm) String() string {
 	switch t.Decay {
 	case Exponential:
-		return fmt.Sprintf("%g·exp(-%g|x-%g|)", t.Amplitude, t.Rate, t.Center)
+		return fmt.Sprintf("exponential(amplitude=%g, center=%g, rate=%g%s)", t.Amplitude, t.Center, t.Rate, t.plateauString())
 	case Gaussian:
-		return fmt.Sprintf("%g·exp(-(x-%g)²/(2·%g²))", t.Amplitude, t.Center, t.Width)
+		return fmt.Sprintf("gaussian(amplitude=%g, center=%g, width=%g%s)", t.Amplitude, t.Center, t.Width, t.plateauString())
 	case Algebraic:
-		return fmt.Sprintf("%g·(1+|x-%g|/%g)^-%g", t.Amplitude, t.Center, t.Width, t.Power)
+		return fmt.Sprintf("algebraic(amplitude=%g, center=%g, width=%g, power=%g%s)", t.Amplitude, t.Center, t.Width, t.Power, t.plateauString())
 	case Compact:
-		return fmt.Sprintf("%g·[|x-%g| ≤ %g]", t.Amplitude, t.Center, t.Width)
+		return fmt.Sprintf("compact(amplitude=%g, center=%g, halfwidth=%g%s)", t.Amplitude, t.Center, t.Width, t.plateauString())
 	}
 	return t.Decay.String()
+}
+
+func (t EnvelopeTerm) plateauString() string {
+	if t.Plateau == 0 {
+		return ""
+	}
+	return fmt.Sprintf(", plateau=%g", t.Plateau)
 }
 
 func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
@@ -335,4 +342,19 @@ func (e Envelope) RayTail(x0 Interval, dir int, h float64) float64 {
 // every x0 in the interval.
 func (e Envelope) LatticeSum(x0 Interval, h float64) float64 {
 	return addUp(e.RayTail(x0, 1, h), e.RayTail(x0.AddFloat(-h), -1, h))
+}
+
+// String lists the terms joined by " + ", or "0" for the empty envelope.
+func (e Envelope) String() string {
+	if len(e) == 0 {
+		return "0"
+	}
+	s := ""
+	for i, t := range e {
+		if i > 0 {
+			s += " + "
+		}
+		s += t.String()
+	}
+	return s
 }

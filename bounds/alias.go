@@ -1,0 +1,410 @@
+package bounds
+
+import (
+	"context"
+	"fmt"
+	"math"
+)
+
+// SampledSum is the answer of AliasSum: the sampled sum of a family on a
+// grid at one frequency, the exact transform, and their difference split
+// into its two causes, each as a complex enclosure.
+//
+//	Sampled     T = h Σ_{k in grid} f(x_k) e^{-iξx_k}
+//	Exact       F(ξ)
+//	Error       T - F = Alias + Truncation
+//	Alias       Σ_{l≠0} F(ξ + 2πl/h) e^{i2πls/h}   (error of the infinite grid)
+//	Truncation  -h Σ_{k not in grid} f(x_k) e^{-iξx_k}   (0 for an infinite grid)
+//
+// With ξ = 0, T is the trapezoidal rule and F the integral of f.
+type SampledSum struct {
+	Sampled    Complex
+	Exact      Complex
+	Error      Complex
+	Alias      Complex
+	Truncation Complex
+	Method     Method
+}
+
+// Method says how a SampledSum was computed.
+type Method struct {
+	// Side is the side of the Poisson formula that gave the alias part.
+	Side Side
+	// AliasTerms counts the terms summed for the alias part: aliased
+	// copies of F (spectral side) or samples of f (spatial side).
+	AliasTerms int64
+	// TruncationTerms counts the omitted samples summed explicitly for the
+	// truncation part (finite grids summed on the spectral side).
+	TruncationTerms int64
+	// Remainder bounds the modulus of every unevaluated tail; it is already
+	// included in the enclosures.
+	Remainder float64
+	// RemainderFrom names the envelope that bounded the remainder.
+	RemainderFrom string
+}
+
+// AliasSum computes the sampled sum of f on the grid g at angular frequency
+// ξ, the exact transform F(ξ) and the error T - F, by the Poisson summation
+// formula (math.md, "Poisson summation"):
+//
+//	h Σ_k f(s+hk) e^{-iξ(s+hk)} = Σ_l F(ξ + 2πl/h) e^{i2πls/h}.
+//
+// The alias part is summed on the spectral side when the spectral envelope
+// of f makes that affordable, which keeps its relative accuracy however
+// small it is against F; otherwise T is summed on the spatial side and the
+// error is T - F. On a finite grid the truncation part is the sum over the
+// omitted samples, summed explicitly with an envelope bound on the rest, or,
+// when the whole grid is summed directly, part of T - F. Every remainder is
+// bounded by the family's envelopes and included in the enclosures.
+//
+// The errors returned wrap ErrInvalid (bad family, grid, frequency or
+// settings: a *ParamError names the field), ErrWorkLimit (more terms than
+// set.MaxTerms), ErrNotFinite, or the context's error.
+func AliasSum(ctx context.Context, f Family, g Grid, xi float64, set Settings) (SampledSum, error) {
+	if err := checkAliasArgs(f, g, xi, set); err != nil {
+		return SampledSum{}, err
+	}
+	s := aliasSummer{ctx: ctx, f: f, g: g, xi: Point(xi), set: set}
+	res, err := s.run()
+	if err != nil {
+		return SampledSum{}, err
+	}
+	if !res.Sampled.IsFinite() || !res.Error.IsFinite() || !res.Exact.IsFinite() {
+		return SampledSum{}, fmt.Errorf("bounds: alias sum of %v: %w", f, ErrNotFinite)
+	}
+	return res, nil
+}
+
+func checkAliasArgs(f Family, g Grid, xi float64, set Settings) error {
+	if err := Validate(f); err != nil {
+		return err
+	}
+	if err := g.Validate("grid"); err != nil {
+		return err
+	}
+	if !finite(xi) {
+		return invalidf("xi", "must be finite, got %g", xi)
+	}
+	return set.Validate()
+}
+
+// aliasSummer holds the state of one AliasSum call.
+type aliasSummer struct {
+	ctx   context.Context
+	f     Family
+	g     Grid
+	xi    Interval
+	set   Settings
+	terms int64 // terms summed so far, against the work limit
+}
+
+// goal returns the remainder we accept for a sum whose magnitude is about
+// scale: the caller's Tol, or 2⁻⁶⁰ of the scale, never below the smallest
+// normal number (so that sums that are exactly zero terminate).
+func (s *aliasSummer) goal(scale float64) float64 {
+	return math.Max(s.set.Tol, math.Max(relGoal*scale, 0x1p-1022))
+}
+
+// spend counts n more terms against the work limit and polls the context
+// every few thousand terms.
+func (s *aliasSummer) spend(n int64, what string) error {
+	before := s.terms
+	s.terms += n
+	if s.terms > s.set.maxTerms() {
+		return workLimitf("settings.max_terms", "%s needs more than %d terms", what, s.set.maxTerms())
+	}
+	if before>>12 != s.terms>>12 {
+		if err := s.ctx.Err(); err != nil {
+			return fmt.Errorf("bounds: %s: %w", what, err)
+		}
+	}
+	return nil
+}
+
+func (s *aliasSummer) run() (SampledSum, error) {
+	if err := s.ctx.Err(); err != nil {
+		return SampledSum{}, fmt.Errorf("bounds: alias sum: %w", err)
+	}
+	F := s.f.Transform(s.xi)
+	scale := F.Mag()
+	h := s.g.Step
+	P := TwoPi.Div(Point(h)) // 2π/h, the period of the spectral copies
+
+	side := s.set.Side
+	if side == AutoSide {
+		side = s.chooseSide(F, P)
+	}
+
+	var res SampledSum
+	res.Exact = F
+	switch {
+	case side == SpectralSide:
+		alias, m, err := s.spectralAlias(P, F)
+		if err != nil {
+			return res, err
+		}
+		res.Alias = alias
+		res.Method = m
+		if !s.g.Infinite() {
+			trunc, n, rem, err := s.omittedSum(scale)
+			if err != nil {
+				return res, err
+			}
+			res.Truncation = trunc
+			res.Method.TruncationTerms = n
+			res.Method.Remainder = addUp(res.Method.Remainder, rem)
+		}
+		res.Error = res.Alias.Add(res.Truncation)
+		res.Sampled = F.Add(res.Error)
+	case s.g.Infinite():
+		T, m, err := s.spatialInfinite(scale)
+		if err != nil {
+			return res, err
+		}
+		res.Sampled = T
+		res.Method = m
+		res.Error = T.Sub(F)
+		res.Alias = res.Error
+	default:
+		// The finite grid summed directly: T exactly, and the error split
+		// into truncation (summed over the omitted samples) and alias = rest.
+		T, err := s.finiteSum()
+		if err != nil {
+			return res, err
+		}
+		trunc, n, rem, err := s.omittedSum(scale)
+		if err != nil {
+			return res, err
+		}
+		res.Sampled = T
+		res.Error = T.Sub(F)
+		res.Truncation = trunc
+		res.Alias = res.Error.Sub(trunc)
+		res.Method = Method{Side: SpatialSide, AliasTerms: s.g.Count, TruncationTerms: n,
+			Remainder: rem, RemainderFrom: s.f.Spatial().String()}
+	}
+	return res, nil
+}
+
+// chooseSide picks the spectral side when its alias sum needs no more
+// terms than a few times the spatial sum, or when the alias error is so
+// small against F that T - F would lose it to rounding.
+func (s *aliasSummer) chooseSide(F Complex, P Interval) Side {
+	spec := s.f.Spectral()
+	first := spec.At(s.xi.Add(P)) + spec.At(s.xi.Sub(P))
+	L := s.spectralTermsEstimate(P, s.goal(math.Max(first, 0x1p-60*F.Mag())))
+	if L < 64 {
+		return SpectralSide
+	}
+	K := s.spatialTermsEstimate(F.Mag())
+	if s.g.Count > 0 && s.g.Count < K {
+		K = s.g.Count
+	}
+	tiny := first < 1e-8*F.Mag()
+	if L <= 4*K || (tiny && L <= s.set.maxTerms()) {
+		return SpectralSide
+	}
+	return SpatialSide
+}
+
+// spectralTail bounds Σ_{|l|>L} |F(ξ + lP)|.
+func (s *aliasSummer) spectralTail(P Interval, L int64) float64 {
+	spec := s.f.Spectral()
+	next := P.Scale(float64(L + 1))
+	return addUp(spec.RayTail(s.xi.Add(next), 1, P.Lo), spec.RayTail(s.xi.Sub(next), -1, P.Lo))
+}
+
+// spectralTermsEstimate returns the number of alias copies on each side
+// needed for a tail below goal, or MaxInt64 if the limit is exceeded.
+func (s *aliasSummer) spectralTermsEstimate(P Interval, goal float64) int64 {
+	limit := s.set.maxTerms()
+	if s.spectralTail(P, 0) <= goal {
+		return 0
+	}
+	hi := int64(1)
+	for s.spectralTail(P, hi) > goal {
+		if hi > limit {
+			return math.MaxInt64
+		}
+		hi *= 2
+	}
+	lo := hi / 2 // tail(lo) > goal (or lo = 0)
+	for hi-lo > 1 {
+		mid := lo + (hi-lo)/2
+		if s.spectralTail(P, mid) <= goal {
+			hi = mid
+		} else {
+			lo = mid
+		}
+	}
+	return hi
+}
+
+// spectralAlias sums the aliased copies l = ±1, …, ±L of F with the phase
+// e^{i2πls/h}, adding copies until the envelope bounds the rest below the
+// goal.
+func (s *aliasSummer) spectralAlias(P Interval, F Complex) (Complex, Method, error) {
+	spec := s.f.Spectral()
+	if math.IsInf(s.spectralTail(P, 0), 1) {
+		return Complex{}, Method{}, invalidf("family", "%v: spectral envelope is not summable; the spectral side cannot be used", s.f)
+	}
+	// Phase e^{i2πs/h}: reduce s/h modulo 1 first so that large shifts keep
+	// an accurate phase.
+	u := Point(s.g.Shift).Div(Point(s.g.Step))
+	u = u.AddFloat(-math.Round(u.Mid()))
+	theta := TwoPi.Mul(u)
+	zeroShift := u.Lo == 0 && u.Hi == 0
+
+	var sum Complex
+	var L int64
+	tail := s.spectralTail(P, 0)
+	for tail > s.goal(math.Max(sum.Mag(), 0x1p-60*F.Mag())) || (L == 0 && tail > s.set.Tol && tail > 0) {
+		L++
+		if err := s.spend(2, "spectral alias sum"); err != nil {
+			return Complex{}, Method{}, err
+		}
+		lp := P.Scale(float64(L))
+		right := s.f.Transform(s.xi.Add(lp))
+		left := s.f.Transform(s.xi.Sub(lp))
+		if zeroShift {
+			sum = sum.Add(right).Add(left)
+		} else {
+			ph := Cis(theta.Scale(float64(L)))
+			sum = sum.Add(right.Mul(ph)).Add(left.Mul(ph.Conj()))
+		}
+		tail = s.spectralTail(P, L)
+	}
+	sum = sum.Inflate(tail)
+	return sum, Method{Side: SpectralSide, AliasTerms: 2 * L, Remainder: tail, RemainderFrom: spec.String()}, nil
+}
+
+// term encloses h·f(x_k)·e^{-iξx_k}.
+func (s *aliasSummer) term(k int64) Complex {
+	x := s.g.At(k)
+	v := s.f.Value(x)
+	if !(s.xi.Lo == 0 && s.xi.Hi == 0) {
+		v = v.Mul(Cis(s.xi.Mul(x).Neg()))
+	}
+	return v.Scale(s.g.Step)
+}
+
+// spatialRays bounds h·Σ|f| over the samples beyond index hi (rightward)
+// and below index lo (leftward).
+func (s *aliasSummer) spatialRays(lo, hi int64) float64 {
+	env := s.f.Spatial()
+	h := s.g.Step
+	r := env.RayTail(s.g.At(hi+1), 1, h)
+	l := env.RayTail(s.g.At(lo-1), -1, h)
+	return mulUp(h, addUp(r, l))
+}
+
+// spatialTermsEstimate returns the number of samples an infinite-grid
+// spatial sum needs, or MaxInt64 if it exceeds the limit.
+func (s *aliasSummer) spatialTermsEstimate(scale float64) int64 {
+	lo, hi, ok := s.spatialWindow(s.goal(scale))
+	if !ok {
+		return math.MaxInt64
+	}
+	return hi - lo + 1
+}
+
+// spatialWindow finds indices [lo, hi] covering every envelope centre such
+// that the samples outside contribute at most goal.
+func (s *aliasSummer) spatialWindow(goal float64) (lo, hi int64, ok bool) {
+	env := s.f.Spatial()
+	if len(env) == 0 {
+		return 0, -1, true
+	}
+	cmin, cmax := math.Inf(1), math.Inf(-1)
+	for _, t := range env {
+		cmin = math.Min(cmin, t.Center-t.Plateau)
+		cmax = math.Max(cmax, t.Center+t.Plateau)
+	}
+	h := s.g.Step
+	limit := float64(s.set.maxTerms())
+	base0 := math.Floor((cmin - s.g.Shift) / h)
+	base1 := math.Ceil((cmax - s.g.Shift) / h)
+	if math.Abs(base0) > 1<<62 || math.Abs(base1) > 1<<62 {
+		return 0, 0, false
+	}
+	var m int64
+	for {
+		lo, hi = int64(base0)-m, int64(base1)+m
+		if float64(hi-lo+1) > limit {
+			return 0, 0, false
+		}
+		if s.spatialRays(lo, hi) <= goal {
+			return lo, hi, true
+		}
+		if m == 0 {
+			m = 1
+		} else {
+			m *= 2
+		}
+	}
+}
+
+// spatialInfinite sums T over an infinite grid on the spatial side.
+func (s *aliasSummer) spatialInfinite(scale float64) (Complex, Method, error) {
+	env := s.f.Spatial()
+	lo, hi, ok := s.spatialWindow(s.goal(scale))
+	if !ok {
+		if math.IsInf(s.spatialRays(0, 0), 1) {
+			return Complex{}, Method{}, invalidf("family", "%v: spatial envelope is not summable; the spatial side cannot be used", s.f)
+		}
+		return Complex{}, Method{}, workLimitf("settings.max_terms", "spatial sum of %v needs more than %d samples", s.f, s.set.maxTerms())
+	}
+	var T Complex
+	for k := lo; k <= hi; k++ {
+		if err := s.spend(1, "spatial sum"); err != nil {
+			return Complex{}, Method{}, err
+		}
+		T = T.Add(s.term(k))
+	}
+	rem := s.spatialRays(lo, hi)
+	T = T.Inflate(rem)
+	return T, Method{Side: SpatialSide, AliasTerms: hi - lo + 1, Remainder: rem, RemainderFrom: env.String()}, nil
+}
+
+// finiteSum sums T over the samples of a finite grid.
+func (s *aliasSummer) finiteSum() (Complex, error) {
+	lo, hi := s.g.Indices()
+	var T Complex
+	for k := lo; k <= hi; k++ {
+		if err := s.spend(1, "finite grid sum"); err != nil {
+			return Complex{}, err
+		}
+		T = T.Add(s.term(k))
+	}
+	return T, nil
+}
+
+// omittedSum returns the truncation part -h Σ_{k omitted} f(x_k)e^{-iξx_k}
+// of a finite grid: the omitted samples nearest the grid are summed
+// explicitly, walking outward on both sides, until the envelope bounds the
+// rest below the goal. It returns the enclosure, the number of samples
+// summed and the remainder bound.
+func (s *aliasSummer) omittedSum(scale float64) (Complex, int64, float64, error) {
+	lo, hi := s.g.Indices()
+	var sum Complex
+	var n int64
+	a, b := lo, hi // samples a..b are accounted for
+	for {
+		rem := s.spatialRays(a, b)
+		if math.IsInf(rem, 1) {
+			return Complex{}, 0, 0, invalidf("family", "%v: spatial envelope is not summable; the truncation error is unbounded", s.f)
+		}
+		// Sum at least the nearest omitted pair, so that a small truncation
+		// part is known to relative accuracy, not only bounded.
+		if rem <= s.goal(math.Max(sum.Mag(), 0x1p-60*scale)) && (n > 0 || rem == 0 || rem <= s.set.Tol) {
+			return sum.Neg().Inflate(rem), n, rem, nil
+		}
+		if err := s.spend(2, "truncation sum"); err != nil {
+			return Complex{}, 0, 0, err
+		}
+		a--
+		b++
+		sum = sum.Add(s.term(a)).Add(s.term(b))
+		n += 2
+	}
+}
