@@ -15,8 +15,10 @@ const (
 	Exponential Decay = iota + 1
 	// Gaussian decay A·e^{-(x-c)²/(2σ²)}.
 	Gaussian
-	// Algebraic decay A·(1+|x-c|/ℓ)^{-q}, q > 1. As a spectral envelope it
-	// describes finite smoothness (about q-1 integrable derivatives).
+	// Algebraic decay A·(1+|x-c|/ℓ)^{-q}, q > 0. As a spectral envelope it
+	// describes finite smoothness (about q-1 integrable derivatives). Its
+	// one-dimensional tails are summable only for q > 1; sums that need an
+	// unsummable tail report so instead of returning a bound.
 	Algebraic
 	// Compact support: at most A for |x-c| ≤ R and 0 beyond. As a spectral
 	// envelope it is a band limit R.
@@ -43,7 +45,7 @@ func (d Decay) String() string {
 //
 //	Exponential  Rate α > 0
 //	Gaussian     Width σ > 0
-//	Algebraic    Width ℓ > 0, Power q > 1
+//	Algebraic    Width ℓ > 0, Power q > 0 (summable in 1-D for q > 1)
 //	Compact      Width R ≥ 0 (half-width of the support or band)
 //
 // The plateau also absorbs rounding: when a centre is moved or scaled, the
@@ -113,8 +115,8 @@ func (e Envelope) Validate(path string) error {
 			if !finite(t.Width) || t.Width <= 0 {
 				return invalidf(p+".width", "must be finite and > 0, got %g", t.Width)
 			}
-			if !finite(t.Power) || t.Power <= 1 {
-				return invalidf(p+".power", "must be finite and > 1 for a summable tail, got %g", t.Power)
+			if !finite(t.Power) || t.Power <= 0 {
+				return invalidf(p+".power", "must be finite and > 0, got %g", t.Power)
 			}
 		case Compact:
 			if !finite(t.Width) || t.Width < 0 {
@@ -264,6 +266,9 @@ func (t EnvelopeTerm) rayFrom(x0, h float64) float64 {
 		b2 := g0.Add(integral).Hi
 		return mulUp(A, math.Min(b1, b2))
 	case Algebraic:
+		if t.Power <= 1 {
+			return math.Inf(1)
+		}
 		l := Point(t.Width)
 		a := X.Div(l).AddFloat(1)
 		c := H.Div(l)
