@@ -125,12 +125,103 @@ func shiftRange(g Grid, anyShift bool) Interval {
 const shiftPieces = 16
 
 // windowSum bounds S = h Σ_{k in grid} |f(x_k)| through the spatial
-// envelope, for every shift in the range.
+// envelope, for every shift: S ≤ Σ_terms h Σ_{k∈Z} term(x_k), each term's
+// lattice sum bounded in closed form by latticeTermSum.
 func windowSum(env Envelope, g Grid, shifts Interval) float64 {
 	if g.Infinite() {
 		return 0
 	}
-	return mulUp(g.Step, env.LatticeSum(shifts, g.Step))
+	s := 0.0
+	for _, t := range env {
+		s = addUp(s, latticeTermSum(t, g.Step))
+	}
+	return s
+}
+
+// latticeTermSum bounds h Σ_{k∈Z} g(s + hk) for one envelope term g, for
+// every shift s, by the least of the bounds that apply:
+//
+//	any term (unimodal):        ∫g + h·A
+//	Gaussian, no plateau:       Aσ√(2π)·(1 + 2e^{-a}/(1 - e^{-3a})),  a = 2π²σ²/h²
+//	exponential, no plateau:    A·h·(1 + e^{-αh})/(1 - e^{-αh})
+//
+// The first is the integral comparison for a function that increases up to
+// its plateau and decreases beyond it: every sample but one is covered by
+// its own cell of width h on the rising or the falling side, and the cell
+// between the two samples around the top holds at least the smaller of
+// them. The second is the Poisson summation formula for the Gaussian,
+// h Σ_k g(s+hk) = Aσ√(2π) Σ_l e^{-a l²} cos(2πl(s-c)/h), with
+// a l² ≥ a + 3a(l-1) for l ≥ 1 (Jacobi's imaginary transformation of θ₃,
+// DLMF 20.7.32, from memory). The third is the geometric series at the
+// worst shift, a sample at the centre: the sum (e^{-αt} + e^{-α(h-t)})/
+// (1 - e^{-αh}) over the offset t ∈ [0, h] is convex with equal ends.
+// The integrals are those of termIntegral: 2pA plus A·σ√(2π), 2A/α,
+// 2Aℓ/(q-1) or 2AR for the four decays.
+func latticeTermSum(t EnvelopeTerm, h float64) float64 {
+	A := Point(t.Amplitude)
+	if t.Amplitude == 0 {
+		return 0
+	}
+	H := Point(h)
+	flat := A.Mul(Point(t.Plateau)).Scale(2)
+	var integral Interval
+	switch t.Decay {
+	case Exponential:
+		integral = A.Scale(2).Div(Point(t.Rate))
+	case Gaussian:
+		integral = A.Mul(SqrtTwoPi).Scale(t.Width)
+	case Algebraic:
+		if t.Power <= 1 {
+			return math.Inf(1)
+		}
+		integral = A.Scale(2).Scale(t.Width).Div(Point(t.Power).AddFloat(-1))
+	case Compact:
+		integral = A.Scale(2).Scale(t.Width)
+	default:
+		return math.Inf(1)
+	}
+	best := flat.Add(integral).Add(A.Mul(H)).Hi
+	if t.Plateau == 0 {
+		switch t.Decay {
+		case Gaussian:
+			s := Point(t.Width)
+			a := Pi.Sqr().Mul(s.Sqr()).Scale(2).Div(H.Sqr()) // 2π²σ²/h²
+			ea := Exp(a.Neg())
+			den := Expm1(a.Scale(-3)).Neg() // 1 - e^{-3a}
+			theta := Point(1).Add(ea.Scale(2).Div(den))
+			best = math.Min(best, integral.Mul(theta).Hi)
+		case Exponential:
+			ah := H.Scale(t.Rate)
+			num := Point(1).Add(Exp(ah.Neg()))
+			den := Expm1(ah.Neg()).Neg() // 1 - e^{-αh}
+			best = math.Min(best, A.Mul(H).Mul(num).Div(den).Hi)
+		}
+	}
+	return best
+}
+
+// farRayTail is Envelope.RayTail, computed faster for rays that start
+// beyond a term's plateau. For such a term RayTail returns
+// min(B(d - p), C) with B the closed-form ray bound (rayFrom) and C a bound
+// for rays that cross the centre; B(d - p) alone is a valid bound there
+// (EnvelopeTerm.tail), and only C is skipped. Terms the ray may cross are
+// bounded by EnvelopeTerm.tail as in RayTail.
+func farRayTail(e Envelope, x0 Interval, dir int, h float64) float64 {
+	s := 0.0
+	for _, t := range e {
+		var d float64
+		if dir >= 0 {
+			d = x0.AddFloat(-t.Center).Lo
+		} else {
+			d = x0.AddFloat(-t.Center).Neg().Lo
+		}
+		if dp := addDown(d, -t.Plateau); dp > 0 {
+			s = addUp(s, rayFromFast(t, dp, h))
+		} else {
+			s = addUp(s, t.tail(d, h))
+		}
+	}
+	return s
 }
 
 // maxAbsX bounds max_k |x_k| over the window for every shift.
@@ -187,7 +278,7 @@ func EnvelopeBudget(ctx context.Context, spatial, spectral Envelope, g Grid, ban
 	}
 	for i := 0; i < bandPieces; i++ {
 		x := subinterval(xi, i, bandPieces)
-		a := addUp(spectral.RayTail(x.Add(P), 1, P.Lo), spectral.RayTail(x.Sub(P), -1, P.Lo))
+		a := addUp(farRayTail(spectral, x.Add(P), 1, P.Lo), farRayTail(spectral, x.Sub(P), -1, P.Lo))
 		b.Aliasing = math.Max(b.Aliasing, a)
 	}
 	b.Pieces = bandPieces
@@ -205,7 +296,7 @@ func EnvelopeBudget(ctx context.Context, spatial, spectral Envelope, g Grid, ban
 			sh := subinterval(shifts, i, pieces)
 			xr := Point(g.Step).Scale(float64(hi + 1)).Add(sh)
 			xl := Point(g.Step).Scale(float64(lo - 1)).Add(sh)
-			t := mulUp(g.Step, addUp(spatial.RayTail(xr, 1, g.Step), spatial.RayTail(xl, -1, g.Step)))
+			t := mulUp(g.Step, addUp(farRayTail(spatial, xr, 1, g.Step), farRayTail(spatial, xl, -1, g.Step)))
 			b.Truncation = math.Max(b.Truncation, t)
 		}
 		b.Pieces = max(pieces, bandPieces)
@@ -308,6 +399,11 @@ type familyBudgeter struct {
 	shifts Interval
 	opt    BudgetOptions
 	pieces int
+	// The truncation bound in modulus does not depend on the frequency;
+	// absTruncation computes it once.
+	truncDone   bool
+	trunc       float64
+	truncPieces int
 }
 
 // at bounds the aliasing and truncation for every frequency in xi (a
@@ -324,7 +420,7 @@ func (fb *familyBudgeter) at(xi Interval) (Budget, error) {
 	}
 	var b Budget
 	if side == SpectralSide {
-		alias, _, err := s.spectralAlias(P, F)
+		alias, err := s.leanSpectralAlias(P, F)
 		if err != nil {
 			return Budget{}, err
 		}
@@ -348,22 +444,107 @@ func (fb *familyBudgeter) at(xi Interval) (Budget, error) {
 	}
 	fb.pieces = 1
 	if !fb.g.Infinite() {
-		pieces := 1
-		if anyShift {
-			pieces = shiftPieces
-		}
-		for i := 0; i < pieces; i++ {
+		if anyShift || wide {
+			t, err := fb.absTruncation()
+			if err != nil {
+				return Budget{}, err
+			}
+			b.Truncation = t
+			fb.pieces = fb.truncPieces
+		} else {
 			st := aliasSummer{ctx: fb.ctx, f: fb.f, g: fb.g, xi: xi,
-				shift: subinterval(fb.shifts, i, pieces), abs: anyShift || wide, set: fb.opt.Settings}
+				shift: fb.shifts, set: fb.opt.Settings}
 			trunc, _, _, err := st.omittedSum(F.Mag())
 			if err != nil {
 				return Budget{}, err
 			}
-			b.Truncation = math.Max(b.Truncation, trunc.Mag())
+			b.Truncation = trunc.Mag()
 		}
-		fb.pieces = pieces
 	}
 	return b, nil
+}
+
+// truncPieces is the number of subintervals the shift range is cut into
+// for the explicit terms of absTruncation.
+const truncPieces = 8
+
+// absTruncation bounds the truncation in modulus, sup over the shift range
+// of h Σ_{k omitted} |f(s + hk)|, which does not depend on the frequency.
+// The m omitted samples nearest the window on each side are summed
+// explicitly in interval arithmetic over each of truncPieces subintervals
+// of the shift range (the sup of a sum over a piece is at most the sum of
+// its terms' sups, and for a tail that decreases away from the window each
+// sup sits at the piece's inner end); the samples beyond them are bounded
+// once, for the whole range, by the spatial envelope (farRayTail). m
+// doubles until that remainder meets omittedSum's goal: at most
+// max(Settings.Tol, 2⁻⁶⁰ of the explicit sum), the first pair always
+// summed unless the remainder is itself within Settings.Tol.
+func (fb *familyBudgeter) absTruncation() (float64, error) {
+	if fb.truncDone {
+		return fb.trunc, nil
+	}
+	g := fb.g
+	h := g.Step
+	lo, hi := g.Indices()
+	env := fb.f.Spatial()
+	whole := aliasSummer{ctx: fb.ctx, f: fb.f, g: g, xi: Point(0), shift: fb.shifts, abs: true, set: fb.opt.Settings}
+	mid := whole
+	mid.shift = Point(fb.shifts.Mid())
+	rem := func(m int64) float64 {
+		r := farRayTail(env, whole.at(hi+m+1), 1, h)
+		l := farRayTail(env, whole.at(lo-m-1), -1, h)
+		return mulUp(h, addUp(r, l))
+	}
+	if !summable(env) {
+		return 0, invalidf("family", "%v: spatial envelope is not summable; the truncation error is unbounded", fb.f)
+	}
+	var m int64
+	// The whole truncation is bounded by the envelope alone when a float64
+	// estimate says that this may be within Settings.Tol.
+	r := math.Inf(1)
+	x0 := whole.at(hi + 1)
+	x1 := whole.at(lo - 1)
+	if est := h * (envRay(env, x0.Lo, 1, h) + envRay(env, x1.Hi, -1, h)); est <= 2*fb.opt.Tol || est == 0 {
+		r = rem(0)
+	}
+	pieces := 1
+	best := 0.0
+	if r > 0 && r > fb.opt.Tol {
+		// A lower bound of the explicit sum, at the middle shift, sets
+		// the goal.
+		est := 0.0
+		for {
+			next := max(1, 2*m)
+			if err := mid.spend(2*(next-m), "truncation sum"); err != nil {
+				return 0, err
+			}
+			for k := m + 1; k <= next; k++ {
+				est = addDown(est, addDown(mid.term(hi+k).Re.Lo, mid.term(lo-k).Re.Lo))
+			}
+			m = next
+			r = rem(m)
+			if r <= whole.goal(est) {
+				break
+			}
+		}
+		pieces = truncPieces
+		for i := 0; i < pieces; i++ {
+			sp := whole
+			sp.shift = subinterval(fb.shifts, i, pieces)
+			if err := whole.spend(2*m, "truncation sum"); err != nil {
+				return 0, err
+			}
+			var sum Interval
+			for k := int64(1); k <= m; k++ {
+				sum = sum.Add(sp.term(hi + k).Re).Add(sp.term(lo - k).Re)
+			}
+			best = math.Max(best, sum.Hi)
+		}
+	}
+	fb.trunc = addUp(best, r)
+	fb.truncPieces = pieces
+	fb.truncDone = true
+	return fb.trunc, nil
 }
 
 // overBand takes the sups of aliasing and truncation over the band by
@@ -436,4 +617,96 @@ func (fb *familyBudgeter) overBand(band Interval) (Budget, error) {
 		b.Pieces *= shiftPieces
 	}
 	return b, nil
+}
+
+// rayFromFast returns EnvelopeTerm.rayFrom, or, for a Gaussian term whose
+// consecutive-term ratio ρ = exp(-(2x0h + h²)/(2σ²)) is below e⁻², only the
+// first of its two bounds, g(x0)/(1-ρ): each of the two is a valid bound,
+// and with ρ < e⁻² the first is within 16% of g(x0), itself a lower bound
+// of the second, so the integral bound (an erfc) is not worth computing.
+func rayFromFast(t EnvelopeTerm, x0, h float64) float64 {
+	if t.Decay != Gaussian || t.Amplitude == 0 {
+		return t.rayFrom(x0, h)
+	}
+	X := Point(x0)
+	H := Point(h)
+	s := Point(t.Width)
+	expo := X.Scale(2).Mul(H).Add(H.Sqr()).Div(s.Sqr().Scale(2))
+	if expo.Lo <= 2 {
+		return t.rayFrom(x0, h)
+	}
+	g0 := Exp(X.Div(s).Sqr().Scale(-0.5))
+	oneMinusRho := Expm1(expo.Neg()).Neg()
+	return mulUp(t.Amplitude, g0.Div(oneMinusRho).Hi)
+}
+
+// summable reports whether every term of e has a summable 1-D ray sum.
+func summable(e Envelope) bool {
+	for _, t := range e {
+		if t.Decay == Algebraic && t.Power <= 1 {
+			return false
+		}
+	}
+	return true
+}
+
+// leanSpectralAlias computes what aliasSummer.spectralAlias computes — the
+// copies l = ±1, …, ±L of F with their phases (or their moduli in abs
+// mode), inflated by the spectral envelope's bound on the rest — with the
+// same stopping rule. It is faster: it bounds the rest in interval
+// arithmetic (with farRayTail) only once a float64 estimate of it says
+// the rule will be met, instead of after every copy.
+func (s *aliasSummer) leanSpectralAlias(P Interval, F Complex) (Complex, error) {
+	spec := s.f.Spectral()
+	tailAt := func(L int64) float64 {
+		next := P.Scale(float64(L + 1))
+		return addUp(farRayTail(spec, s.xi.Add(next), 1, P.Lo), farRayTail(spec, s.xi.Sub(next), -1, P.Lo))
+	}
+	if !summable(spec) {
+		return Complex{}, invalidf("family", "%v: spectral envelope is not summable; the spectral side cannot be used", s.f)
+	}
+	// The rest beyond L = 0 is bounded in interval arithmetic only when a
+	// float64 estimate says that it may end the sum.
+	tail := math.Inf(1)
+	if est := envRay(spec, s.xi.Lo+P.Lo, 1, P.Lo) + envRay(spec, s.xi.Hi-P.Lo, -1, P.Lo); est <= 2*s.set.Tol || est == 0 {
+		tail = tailAt(0)
+	}
+	u := s.shift.Div(Point(s.g.Step))
+	u = u.AddFloat(-math.Round(u.Mid()))
+	theta := TwoPi.Mul(u)
+	zeroShift := u.Lo == 0 && u.Hi == 0
+	scale := 0x1p-60 * F.Mag()
+	var sum Complex
+	var L int64
+	for tail > s.goal(math.Max(sum.Mag(), scale)) || (L == 0 && tail > s.set.Tol && tail > 0) {
+		stop := 2*L + 8
+		for {
+			L++
+			if err := s.spend(2, "spectral alias sum"); err != nil {
+				return Complex{}, err
+			}
+			lp := P.Scale(float64(L))
+			right := s.f.Transform(s.xi.Add(lp))
+			left := s.f.Transform(s.xi.Sub(lp))
+			switch {
+			case s.abs:
+				sum = sum.Add(RealC(right.Abs().Add(left.Abs())))
+			case zeroShift:
+				sum = sum.Add(right).Add(left)
+			default:
+				ph := Cis(theta.Scale(float64(L)))
+				sum = sum.Add(right.Mul(ph)).Add(left.Mul(ph.Conj()))
+			}
+			if L >= stop {
+				break
+			}
+			next := float64(L+1) * P.Lo
+			est := envRay(spec, s.xi.Lo+next, 1, P.Lo) + envRay(spec, s.xi.Hi-next, -1, P.Lo)
+			if est <= 0.5*s.goal(math.Max(sum.Mag(), scale)) {
+				break
+			}
+		}
+		tail = tailAt(L)
+	}
+	return sum.Inflate(tail), nil
 }

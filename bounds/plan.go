@@ -1,0 +1,737 @@
+package bounds
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"math"
+)
+
+// PlanRequest asks for the cheapest one-dimensional grid whose certified
+// error is at most Tol (PlanGrid). The function is given either exactly, as
+// a Family, or only by its decay, as a pair of envelopes; exactly one of
+// the two must be set.
+//
+// The error is that of the sampled sum
+//
+//	T = h Σ_{k=lo}^{hi} f(s + hk) e^{-iξ(s+hk)}   against   F(ξ),
+//
+// computed in double precision, for every frequency ξ of Band (Band{} asks
+// for the integral, ξ = 0) and, unless FixedShift is set, for every shift
+// (see Plan for the shift convention).
+type PlanRequest struct {
+	// Family is the function, known exactly; nil for an envelope plan.
+	Family Family
+	// Spatial and Spectral bound |f| and |F| when Family is nil. The plan
+	// then holds for every function within both envelopes.
+	Spatial, Spectral Envelope
+	// Tol is the tolerance on the absolute error, > 0.
+	Tol float64
+	// Band is the set of frequencies |ξ - Center| ≤ HalfWidth where the
+	// sampled transform must be within Tol; Band{} is the integral.
+	Band Band
+	// Resolution, if > 0, is the frequency spacing Δξ the sampled transform
+	// must resolve: the window must span N·h ≥ 2π/Δξ (the spacing of a
+	// discrete Fourier transform of N samples of step h is 2π/(N·h)).
+	Resolution float64
+	// FixedShift asks for a plan that holds for the one shift Shift instead
+	// of every shift: the samples are then exactly Shift + h·k.
+	FixedShift bool
+	Shift      float64
+	// Cost prices the grid and restricts its count (CostModel).
+	Cost CostModel
+	// SampleUlps is the error of each computed sample f(x_k) in units of the
+	// unit roundoff 2⁻⁵³; 0 means 1 (correctly rounded samples).
+	SampleUlps float64
+	// MaxCount caps the sample count; 0 means DefaultPlanMaxCount. A request
+	// that needs more fails with an error wrapping ErrWorkLimit.
+	MaxCount int64
+	// MaxTerms caps the terms of each interval evaluation (Settings.MaxTerms).
+	MaxTerms int64
+}
+
+// DefaultPlanMaxCount is the sample limit of a plan when the request sets
+// none (2⁴⁰, about 10¹²).
+const DefaultPlanMaxCount = 1 << 40
+
+// Plan is a planned grid with its certificate.
+//
+// Shift convention: the grid is Grid{Step: h, Count: N, Shift: s} with the
+// samples s + h·k, k = -⌊(N-1)/2⌋, …, ⌊N/2⌋ (see Grid), so the window
+// [first, last] is centred on s for odd N and on s + h/2 for even N. By
+// default (any shift) the planner centres the window on the function's
+// centre c — the midpoint of the centres of its spatial envelope — by
+// taking s = c for odd N and s = c - h/2 for even N, and the certificate
+// holds for every shift in [s - h/2, s + h/2]: wherever the samples fall,
+// as long as the window's centre stays within h/2 of c. With a fixed shift
+// s is the requested shift and the certificate holds for it alone.
+type Plan struct {
+	Grid Grid
+	// Window encloses the first and last sample positions.
+	Window Interval
+	// Span is N·h; 2π/Span is the frequency spacing of the sampled
+	// transform.
+	Span float64
+	// AnyShift is true when Budget holds for every shift in
+	// [Grid.Shift - h/2, Grid.Shift + h/2].
+	AnyShift bool
+	// Cost is the price of the grid under the request's cost model.
+	Cost float64
+	// Budget is the certificate: the itemised error bound computed for
+	// this grid by FamilyBudget or EnvelopeBudget in interval arithmetic,
+	// with Budget.Total ≤ Tol.
+	Budget Budget
+	// Model is the float64 model's estimate of Budget.Total that the
+	// search used.
+	Model float64
+	// Verifications counts the interval evaluations made (1 unless the
+	// first candidate failed its certificate).
+	Verifications int
+}
+
+// PlanGrid returns the cheapest grid (step, count, shift) whose error
+// budget — aliasing + truncation + rounding, certified in interval
+// arithmetic — is at most req.Tol over req.Band, by default for every
+// shift.
+//
+// The search runs on a float64 model of the budget (planModel): for each
+// count N it finds the step that minimises the modelled total, and it looks
+// for the least admissible N whose minimum is within the tolerance. For
+// functions of compact support it also tries the steps W/n that make n
+// samples span the support W exactly (these make the B-splines' alias sum
+// vanish). The chosen grid is then certified with FamilyBudget (exact
+// alias and truncation terms) or EnvelopeBudget; if the certificate
+// exceeds the tolerance, the next admissible count is tried.
+//
+// Errors are *ParamError values wrapping ErrInvalid (a bad request),
+// ErrInfeasible (a tolerance below what double precision can certify for
+// this function; the message gives the smallest certifiable tolerance) or
+// ErrWorkLimit (more than MaxCount samples needed; the message gives the
+// smallest tolerance within the limit), or the context's error.
+func PlanGrid(ctx context.Context, req PlanRequest) (Plan, error) {
+	if err := req.validate(""); err != nil {
+		return Plan{}, err
+	}
+	if err := ctx.Err(); err != nil {
+		return Plan{}, fmt.Errorf("bounds: plan: %w", err)
+	}
+	p := newPlanner1(ctx, req)
+	return p.plan()
+}
+
+func (r PlanRequest) validate(path string) error {
+	if math.IsNaN(r.Tol) || math.IsInf(r.Tol, 0) || r.Tol <= 0 {
+		return invalidf(path+"tol", "must be finite and > 0, got %g", r.Tol)
+	}
+	if r.Family != nil {
+		if len(r.Spatial) > 0 || len(r.Spectral) > 0 {
+			return invalidf(path+"family", "give a family or envelopes, not both")
+		}
+		if err := Validate(r.Family); err != nil {
+			return err
+		}
+	} else {
+		if len(r.Spatial) == 0 {
+			return invalidf(path+"spatial", "missing: give a family or a spatial envelope")
+		}
+		if len(r.Spectral) == 0 {
+			return invalidf(path+"spectral", "missing: give a family or a spectral envelope")
+		}
+		if err := r.Spatial.Validate(path + "spatial"); err != nil {
+			return err
+		}
+		if err := r.Spectral.Validate(path + "spectral"); err != nil {
+			return err
+		}
+	}
+	spatial, spectral := r.envelopes()
+	for i, t := range spatial {
+		if t.Decay == Algebraic && t.Power <= 1 {
+			return invalidf(fmt.Sprintf("%sspatial[%d].power", path, i), "the truncation error is unbounded for algebraic decay of power %g ≤ 1", t.Power)
+		}
+	}
+	for i, t := range spectral {
+		if t.Decay == Algebraic && t.Power <= 1 {
+			return invalidf(fmt.Sprintf("%sspectral[%d].power", path, i), "the aliasing error is unbounded for algebraic decay of power %g ≤ 1", t.Power)
+		}
+	}
+	if err := r.Band.Validate(path + "band"); err != nil {
+		return err
+	}
+	if !finite(r.Resolution) || r.Resolution < 0 {
+		return invalidf(path+"resolution", "must be finite and ≥ 0, got %g", r.Resolution)
+	}
+	if !finite(r.Shift) {
+		return invalidf(path+"shift", "must be finite, got %g", r.Shift)
+	}
+	if err := r.Cost.Validate(path + "cost"); err != nil {
+		return err
+	}
+	if !finite(r.SampleUlps) || r.SampleUlps < 0 {
+		return invalidf(path+"sample_ulps", "must be finite and ≥ 0, got %g", r.SampleUlps)
+	}
+	if r.MaxCount < 0 || r.MaxCount > MaxCount {
+		return invalidf(path+"max_count", "must be between 0 (default) and 2^53, got %d", r.MaxCount)
+	}
+	if r.MaxTerms < 0 {
+		return invalidf(path+"max_terms", "must be ≥ 0, got %d", r.MaxTerms)
+	}
+	return nil
+}
+
+// envelopes returns the spatial and spectral envelopes the plan uses.
+func (r PlanRequest) envelopes() (Envelope, Envelope) {
+	if r.Family != nil {
+		return r.Family.Spatial(), r.Family.Spectral()
+	}
+	return r.Spatial, r.Spectral
+}
+
+func (r PlanRequest) maxCount() int64 {
+	if r.MaxCount == 0 {
+		return DefaultPlanMaxCount
+	}
+	return r.MaxCount
+}
+
+func (r PlanRequest) sampleUlps() float64 {
+	if r.SampleUlps == 0 {
+		return 1
+	}
+	return r.SampleUlps
+}
+
+// planner1 holds the state of one 1-D planning run.
+type planner1 struct {
+	ctx context.Context
+	req PlanRequest
+	m   planModel
+	tol float64
+	// hMax is the largest step whose modelled aliasing alone is within
+	// the tolerance (0 before it is known).
+	hMax float64
+	// hint is the best step found so far, a starting point for the next
+	// minimisation.
+	hint float64
+	// evals counts model evaluations.
+	evals int
+}
+
+// verifyFraction is the share of the tolerance below which the interval
+// evaluation may leave the remainders of its infinite sums as bounds
+// (Settings.Tol of the certificate).
+const verifyFraction = 0x1p-7
+
+func newPlanner1(ctx context.Context, req PlanRequest) *planner1 {
+	spatial, spectral := req.envelopes()
+	m := planModel{
+		spatial:  spatial,
+		spectral: spectral,
+		center:   envelopeCenter(spatial),
+		anyShift: !req.FixedShift,
+		shift:    req.Shift,
+		ulps:     req.sampleUlps(),
+		remGoal:  req.Tol * verifyFraction,
+		wide:     req.Band.HalfWidth > 0,
+	}
+	if req.Family != nil {
+		m.val, m.tr = pointEvaluators(req.Family)
+	}
+	b := req.Band
+	m.xiMag = b.Interval().Mag()
+	if b.HalfWidth == 0 {
+		m.xis = []float64{b.Center}
+	} else {
+		w := b.HalfWidth
+		m.xis = []float64{b.Center - w, b.Center - w/2, b.Center, b.Center + w/2, b.Center + w}
+	}
+	return &planner1{ctx: ctx, req: req, m: m, tol: req.Tol}
+}
+
+// hRes is the least step that N samples may have under the resolution
+// requirement N·h ≥ 2π/Δξ.
+func (p *planner1) hRes(n int64) float64 {
+	if p.req.Resolution <= 0 {
+		return 0
+	}
+	return 2 * math.Pi / (p.req.Resolution * float64(n))
+}
+
+// stepForAlias returns about the largest step h whose modelled aliasing is
+// at most eps, by bracketing and bisection on log h. It returns +Inf when
+// the aliasing stays below eps for every step tried (a function so small
+// that any grid aliases within eps).
+func (p *planner1) stepForAlias(eps, rel float64) float64 {
+	spec := p.m.spectral
+	omega := envReach(spec, 0, eps/4) + p.m.xiMag
+	h := 1.0
+	if omega > 0 && finite(omega) {
+		h = 2 * math.Pi / omega
+	}
+	lo, hi := 0.0, 0.0
+	if p.m.alias(h) <= eps {
+		lo = h
+		for i := 0; ; i++ {
+			h *= 2
+			if i > 60 {
+				return math.Inf(1)
+			}
+			if p.m.alias(h) > eps {
+				hi = h
+				break
+			}
+			lo = h
+		}
+	} else {
+		hi = h
+		for i := 0; ; i++ {
+			h /= 2
+			if i > 200 {
+				return 0
+			}
+			if p.m.alias(h) <= eps {
+				lo = h
+				break
+			}
+			hi = h
+		}
+	}
+	for hi/lo > 1+rel {
+		mid := math.Sqrt(lo * hi)
+		if p.m.alias(mid) <= eps {
+			lo = mid
+		} else {
+			hi = mid
+		}
+	}
+	return lo
+}
+
+// minTotal minimises the modelled total over the step for N samples. With
+// enough = true it returns as soon as a step with total ≤ tol is found.
+// It returns the step and the total (+Inf if no admissible step exists).
+func (p *planner1) minTotal(n int64, enough bool) (float64, float64) {
+	hHi := p.hMax
+	hLo := p.hRes(n)
+	if hLo > hHi {
+		return hLo, math.Inf(1)
+	}
+	f := func(h float64) float64 {
+		p.evals++
+		return p.m.total(h, n)
+	}
+	// Start from the hint, clipped into [hLo, hHi].
+	h0 := p.hint
+	if h0 <= 0 || h0 > hHi {
+		h0 = hHi
+	}
+	if h0 < hLo {
+		h0 = hLo
+	}
+	f0 := f(h0)
+	if enough && f0 <= p.tol {
+		return h0, f0
+	}
+	// Bracket a minimum on log h by walking downhill with growing steps.
+	ratio := 1.02
+	a, fa := h0, f0
+	b, fb := math.Min(h0*ratio, hHi), 0.0
+	if b == h0 {
+		b = h0 / ratio
+	}
+	fb = f(b)
+	if fb > fa {
+		// Walk the other way.
+		a, b = b, a
+		fa, fb = fb, fa
+	}
+	// Now fb ≤ fa; continue from b away from a.
+	up := b > a
+	step := ratio
+	for i := 0; i < 200; i++ {
+		if enough && fb <= p.tol {
+			return b, fb
+		}
+		var c float64
+		if up {
+			c = math.Min(b*step, hHi)
+		} else {
+			c = math.Max(b/step, hLo)
+		}
+		if c == b {
+			// Hit the edge of the admissible steps: the minimum is there.
+			return b, fb
+		}
+		fc := f(c)
+		if fc >= fb {
+			h, v := p.brent(f, a, b, c, fb, enough)
+			return h, v
+		}
+		a, fa = b, fb
+		b, fb = c, fc
+		step *= step
+		if step > 4 {
+			step = 4
+		}
+	}
+	return b, fb
+}
+
+// brent minimises f on the bracket (a, b, c), f(b) ≤ f(a), f(c), in log
+// coordinates by golden-section steps with parabolic interpolation (Brent,
+// Algorithms for Minimization without Derivatives, 1973, Ch. 5, from
+// memory), to a relative step tolerance of 1e-6.
+func (p *planner1) brent(f func(float64) float64, a, b, c, fb float64, enough bool) (float64, float64) {
+	const cgold = 0.3819660112501051
+	lo, hi := math.Log(math.Min(a, c)), math.Log(math.Max(a, c))
+	x := math.Log(b)
+	w, v := x, x
+	fx := fb
+	fw, fv := fx, fx
+	var d, e float64
+	for it := 0; it < 60; it++ {
+		if enough && fx <= p.tol {
+			break
+		}
+		m := 0.5 * (lo + hi)
+		tol1 := 1e-7 + 1e-9*math.Abs(x)
+		if math.Abs(x-m) <= 2*tol1-0.5*(hi-lo) {
+			break
+		}
+		golden := true
+		if math.Abs(e) > tol1 {
+			r := (x - w) * (fx - fv)
+			q := (x - v) * (fx - fw)
+			pp := (x-v)*q - (x-w)*r
+			q = 2 * (q - r)
+			if q > 0 {
+				pp = -pp
+			}
+			q = math.Abs(q)
+			etemp := e
+			e = d
+			if math.Abs(pp) < math.Abs(0.5*q*etemp) && pp > q*(lo-x) && pp < q*(hi-x) {
+				d = pp / q
+				u := x + d
+				if u-lo < 2*tol1 || hi-u < 2*tol1 {
+					d = math.Copysign(tol1, m-x)
+				}
+				golden = false
+			}
+		}
+		if golden {
+			if x >= m {
+				e = lo - x
+			} else {
+				e = hi - x
+			}
+			d = cgold * e
+		}
+		u := x + d
+		if math.Abs(d) < tol1 {
+			u = x + math.Copysign(tol1, d)
+		}
+		fu := f(math.Exp(u))
+		if fu <= fx {
+			if u >= x {
+				lo = x
+			} else {
+				hi = x
+			}
+			v, fv = w, fw
+			w, fw = x, fx
+			x, fx = u, fu
+		} else {
+			if u < x {
+				lo = u
+			} else {
+				hi = u
+			}
+			if fu <= fw || w == x {
+				v, fv = w, fw
+				w, fw = u, fu
+			} else if fu <= fv || v == x || v == w {
+				v, fv = u, fu
+			}
+		}
+	}
+	return math.Exp(x), fx
+}
+
+// feasible reports whether N admissible samples can meet the tolerance in
+// the model, returning the step found and the modelled total (the
+// minimum over steps when infeasible).
+func (p *planner1) feasible(n int64) (bool, float64, float64) {
+	h, v := p.minTotal(n, true)
+	if v <= p.tol {
+		p.hint = h
+		return true, h, v
+	}
+	return false, h, v
+}
+
+// searchCount finds the least admissible count that the model deems
+// feasible. It returns the count, or 0 with the least modelled total seen
+// and the count where it was seen when the tolerance is out of reach.
+func (p *planner1) searchCount() (n int64, floor float64, floorAt int64, err error) {
+	cost := p.req.Cost
+	limit := p.req.maxCount()
+	// A first guess from the aliasing-limited step and the spatial reach.
+	h1 := p.stepForAlias(p.tol/4, 1e-3)
+	if math.IsInf(h1, 1) {
+		h1 = p.hMax
+	}
+	if h1 <= 0 {
+		return 0, math.Inf(1), 0, nil
+	}
+	p.hint = h1
+	reach := envReach(p.m.spatial, p.m.center, p.tol*h1/8)
+	guess := int64(1)
+	if g := 2 * reach / h1; g > 1 && g < float64(limit) {
+		guess = int64(math.Ceil(g))
+	} else if g >= float64(limit) {
+		guess = limit
+	}
+	if r := p.hRes(1); r > 0 {
+		// N ≥ 2π/(Δξ·h) with h ≤ hMax.
+		if g := 2 * math.Pi / (p.req.Resolution * p.hMax); g > float64(guess) && g < float64(limit) {
+			guess = int64(math.Ceil(g))
+		}
+	}
+	floor = math.Inf(1)
+	note := func(n int64, v float64) {
+		if v < floor {
+			floor, floorAt = v, n
+		}
+	}
+	// Gallop: find lo infeasible, hi feasible.
+	lo, hi := int64(0), int64(0)
+	cur := cost.Next(guess)
+	if cur == 0 || cur > limit {
+		cur = cost.Prev(limit)
+	}
+	ok, _, v := p.feasible(cur)
+	note(cur, v)
+	if ok {
+		hi = cur
+		d := max(hi/8, 1)
+		for {
+			if err := p.ctx.Err(); err != nil {
+				return 0, 0, 0, fmt.Errorf("bounds: plan: %w", err)
+			}
+			c := cost.Prev(hi - d)
+			if c < 1 {
+				lo = 0
+				break
+			}
+			ok, _, v := p.feasible(c)
+			note(c, v)
+			if !ok {
+				lo = c
+				break
+			}
+			hi = c
+			d *= 2
+		}
+	} else {
+		lo = cur
+		prevV := v
+		d := max(lo/8, 1)
+		for {
+			if err := p.ctx.Err(); err != nil {
+				return 0, 0, 0, fmt.Errorf("bounds: plan: %w", err)
+			}
+			if lo >= limit {
+				return 0, floor, floorAt, nil
+			}
+			c := cost.Next(min(lo+d, limit))
+			if c == 0 || c > limit {
+				c = cost.Prev(limit)
+				if c <= lo {
+					return 0, floor, floorAt, nil
+				}
+			}
+			ok, _, v := p.feasible(c)
+			note(c, v)
+			if ok {
+				hi = c
+				break
+			}
+			// Rounding grows with N: once the modelled minimum stops
+			// falling, more samples cannot help.
+			if v >= prevV && d >= 4*max(lo, 1) {
+				return 0, floor, floorAt, nil
+			}
+			prevV = math.Min(prevV, v)
+			lo = c
+			d *= 2
+		}
+	}
+	// Bisect between lo (infeasible or 0) and hi (feasible).
+	for {
+		if err := p.ctx.Err(); err != nil {
+			return 0, 0, 0, fmt.Errorf("bounds: plan: %w", err)
+		}
+		mid := cost.Next(lo + (hi-lo)/2)
+		if mid <= lo {
+			mid = cost.Next(lo + 1)
+		}
+		if mid >= hi {
+			return hi, floor, floorAt, nil
+		}
+		ok, _, v := p.feasible(mid)
+		note(mid, v)
+		if ok {
+			hi = mid
+		} else {
+			lo = mid
+		}
+	}
+}
+
+// compactCandidates tries, for a family of compact support of width W,
+// the counts n below best with the steps h = W/n at which n samples span
+// the support (slightly above, so that no sample of the support is
+// omitted for any shift). It returns the least feasible count and its
+// step, or 0.
+func (p *planner1) compactCandidates(best int64) (int64, float64) {
+	if p.m.val == nil {
+		return 0, 0
+	}
+	lo, hi := math.Inf(1), math.Inf(-1)
+	for _, t := range p.m.spatial {
+		if t.Decay != Compact {
+			return 0, 0
+		}
+		lo = math.Min(lo, t.Center-t.Plateau-t.Width)
+		hi = math.Max(hi, t.Center+t.Plateau+t.Width)
+	}
+	W := 2 * math.Max(hi-p.m.center, p.m.center-lo)
+	if !(W > 0) {
+		return 0, 0
+	}
+	limit := min(best-1, 4096)
+	for n := int64(1); n <= limit; n++ {
+		if !p.req.Cost.Admissible(n) {
+			continue
+		}
+		h := W / float64(n)
+		if h < p.hRes(n) {
+			continue
+		}
+		for _, hh := range [...]float64{h, h * (1 + 0x1p-40), h * (1 + 0x1p-20)} {
+			p.evals++
+			if v := p.m.total(hh, n); v <= p.tol {
+				return n, hh
+			}
+		}
+	}
+	return 0, 0
+}
+
+func (p *planner1) plan() (Plan, error) {
+	limit := p.req.maxCount()
+	p.hMax = p.stepForAlias(p.tol, 1e-6)
+	if p.hMax <= 0 {
+		return Plan{}, p.infeasible(math.Inf(1), 0)
+	}
+	if math.IsInf(p.hMax, 1) {
+		// Aliasing never matters: bound the step by the spatial extent.
+		p.hMax = math.Max(2*envReach(p.m.spatial, p.m.center, p.tol*verifyFraction), math.SmallestNonzeroFloat64)
+		if p.req.Resolution > 0 {
+			p.hMax = math.Max(p.hMax, 2*math.Pi/p.req.Resolution)
+		}
+	}
+	n, floor, floorAt, err := p.searchCount()
+	if err != nil {
+		return Plan{}, err
+	}
+	var h float64
+	if n > 0 {
+		if cn, ch := p.compactCandidates(n); cn > 0 {
+			n, h = cn, ch
+		} else {
+			h, _ = p.minTotal(n, false)
+		}
+	} else if cn, ch := p.compactCandidates(limit + 1); cn > 0 {
+		n, h = cn, ch
+	} else {
+		return Plan{}, p.infeasible(floor, floorAt)
+	}
+	// Certify; on failure try the next admissible counts.
+	var last Budget
+	verifications := 0
+	for try := 0; try < 4; try++ {
+		plan, err := p.certify(h, n)
+		verifications++
+		if err != nil {
+			return Plan{}, err
+		}
+		if plan.Budget.Total <= p.tol {
+			plan.Verifications = verifications
+			return plan, nil
+		}
+		last = plan.Budget
+		next := p.req.Cost.Next(n + 1)
+		if next == 0 || next > limit {
+			break
+		}
+		n = next
+		p.hint = h
+		h, _ = p.minTotal(n, false)
+	}
+	return Plan{}, &ParamError{Param: "tol", Err: ErrInfeasible,
+		Reason: fmt.Sprintf("the certified error of the best grid found stays above the tolerance %.3g (last certified total %.3g after %d tries); a tolerance of about %.1g is certifiable",
+			p.tol, last.Total, verifications, 2*last.Total)}
+}
+
+// certify evaluates the budget of the grid in interval arithmetic.
+func (p *planner1) certify(h float64, n int64) (Plan, error) {
+	g := Grid{Step: h, Count: n, Shift: p.m.gridShift(h, n)}
+	remGoal := math.Max(p.tol*verifyFraction, p.m.capped)
+	opt := BudgetOptions{
+		AnyShift:   !p.req.FixedShift,
+		SampleUlps: p.req.SampleUlps,
+		Settings:   Settings{Tol: remGoal, MaxTerms: p.req.MaxTerms},
+	}
+	var b Budget
+	var err error
+	if p.req.Family != nil {
+		opt.Side = SpectralSide
+		b, err = FamilyBudget(p.ctx, p.req.Family, g, p.req.Band, opt)
+	} else {
+		b, err = EnvelopeBudget(p.ctx, p.req.Spatial, p.req.Spectral, g, p.req.Band, opt)
+	}
+	if err != nil {
+		return Plan{}, fmt.Errorf("bounds: certifying a grid of %d samples: %w", n, err)
+	}
+	return Plan{
+		Grid:     g,
+		Window:   g.Window(),
+		Span:     mulUp(float64(n), h),
+		AnyShift: !p.req.FixedShift,
+		Cost:     p.req.Cost.Cost(float64(n)),
+		Budget:   b,
+		Model:    p.m.total(h, n),
+	}, nil
+}
+
+// infeasible builds the error for a tolerance out of reach.
+func (p *planner1) infeasible(floor float64, at int64) error {
+	limit := p.req.maxCount()
+	if math.IsInf(floor, 1) || math.IsNaN(floor) {
+		return &ParamError{Param: "tol", Err: ErrInfeasible,
+			Reason: fmt.Sprintf("no grid reaches the tolerance %.3g: the modelled error does not fall below it for any step", p.tol)}
+	}
+	if at >= p.req.Cost.Prev(limit) {
+		return &ParamError{Param: "max_count", Err: ErrWorkLimit,
+			Reason: fmt.Sprintf("the tolerance %.3g needs more than %d samples; with %d samples about %.2g is achievable", p.tol, limit, at, floor)}
+	}
+	return &ParamError{Param: "tol", Err: ErrInfeasible,
+		Reason: fmt.Sprintf("the tolerance %.3g is below what double precision can certify for this request: the smallest certifiable tolerance is about %.2g (with %d samples; rounding grows with the count)", p.tol, floor, at)}
+}
+
+// isPlanInfeasible reports whether err says the tolerance is out of reach.
+func isPlanInfeasible(err error) bool {
+	return errors.Is(err, ErrInfeasible) || errors.Is(err, ErrWorkLimit)
+}

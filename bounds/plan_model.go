@@ -1,0 +1,374 @@
+package bounds
+
+import (
+	"math"
+	"math/cmplx"
+)
+
+// planModel is the plain float64 model of a certified error budget that the
+// planner searches with. It mirrors what FamilyBudget and EnvelopeBudget
+// compute — the same alias copies, the same omitted samples, the same
+// envelope remainders and the same rounding bound — without interval
+// arithmetic, so that one evaluation costs a few dozen floating-point
+// operations. It only steers the search: every plan is certified
+// afterwards by the interval evaluation.
+//
+// For a family the model sums exact moduli |F(ξ + 2πl/h)| and |f(x_k)|;
+// for envelopes it sums the envelopes. Remainders of the infinite sums use
+// the closed forms of EnvelopeTerm.rayFrom in float64.
+type planModel struct {
+	val      func(x float64) complex128  // f, nil for envelope plans
+	tr       func(xi float64) complex128 // F, nil for envelope plans
+	spatial  Envelope
+	spectral Envelope
+	center   float64   // the point windows are centred on
+	xis      []float64 // frequencies at which the band's aliasing is sampled
+	xiMag    float64   // max |ξ| over the band
+	wide     bool      // a band of positive width
+	anyShift bool
+	shift    float64 // the fixed shift (anyShift false)
+	ulps     float64 // sample error in units of u
+	remGoal  float64 // remainders below this are not refined (the verification's Settings.Tol)
+	capped   float64 // largest remainder accepted only because a term limit was hit
+	sH, sVal float64 // the last step and its window-sum bound S
+}
+
+// modelTerms caps the explicit terms one model sum may add before it takes
+// the envelope remainder as it is.
+const modelTerms = 64
+
+// pointEvaluators returns plain float64 evaluators of f and F. Families
+// with a closed form known here get a direct formula; the others are
+// evaluated through their interval methods at a point.
+func pointEvaluators(f Family) (val, tr func(float64) complex128) {
+	switch g := f.(type) {
+	case GaussianFamily:
+		s := g.Sigma
+		inv := 1 / (2 * s * s)
+		amp := s * math.Sqrt(2*math.Pi)
+		return func(x float64) complex128 { return complex(math.Exp(-x*x*inv), 0) },
+			func(xi float64) complex128 { return complex(amp*math.Exp(-0.5*s*s*xi*xi), 0) }
+	}
+	return func(x float64) complex128 { return f.Value(Point(x)).Mid() },
+		func(xi float64) complex128 { return f.Transform(Point(xi)).Mid() }
+}
+
+// envelopeCenter returns the midpoint of the hull of the centres (widened
+// by plateaus) of an envelope's terms, 0 for an empty envelope.
+func envelopeCenter(e Envelope) float64 {
+	if len(e) == 0 {
+		return 0
+	}
+	lo, hi := math.Inf(1), math.Inf(-1)
+	for _, t := range e {
+		lo = math.Min(lo, t.Center-t.Plateau)
+		hi = math.Max(hi, t.Center+t.Plateau)
+	}
+	return 0.5*lo + 0.5*hi
+}
+
+// termRay returns Σ_{j≥0} g(d + j·h) for one envelope term, where d is the
+// signed distance of the first point from the term's centre measured along
+// the ray (negative while the ray still approaches the centre). It is the
+// float64 counterpart of EnvelopeTerm.rayFrom, extended to rays that cross
+// the centre.
+func termRay(t EnvelopeTerm, d, h float64) float64 {
+	if t.Amplitude == 0 {
+		return 0
+	}
+	s := 0.0
+	if d < 0 {
+		// Points before the centre: at most modelTerms explicitly, then the
+		// integral comparison of a unimodal profile.
+		n := math.Ceil(-d / h)
+		if n > modelTerms {
+			s += termIntegral(t)/h + t.Amplitude
+			d += n * h
+		} else {
+			for ; d < 0; d += h {
+				s += termAt(t, -d)
+			}
+		}
+	}
+	dp := d - t.Plateau
+	if dp < 0 {
+		n := math.Floor(-dp/h) + 1
+		s += n * t.Amplitude
+		dp += n * h
+	}
+	return s + termRayFrom(t, dp, h)
+}
+
+// termAt returns g at distance d ≥ 0 from the centre.
+func termAt(t EnvelopeTerm, d float64) float64 {
+	d -= t.Plateau
+	if d < 0 {
+		d = 0
+	}
+	A := t.Amplitude
+	switch t.Decay {
+	case Exponential:
+		return A * math.Exp(-t.Rate*d)
+	case Gaussian:
+		u := d / t.Width
+		return A * math.Exp(-0.5*u*u)
+	case Algebraic:
+		return A * math.Pow(1+d/t.Width, -t.Power)
+	case Compact:
+		if d > t.Width {
+			return 0
+		}
+		return A
+	}
+	return math.Inf(1)
+}
+
+// termIntegral returns ∫ g over the line.
+func termIntegral(t EnvelopeTerm) float64 {
+	A := t.Amplitude
+	flat := 2 * t.Plateau * A
+	switch t.Decay {
+	case Exponential:
+		return flat + 2*A/t.Rate
+	case Gaussian:
+		return flat + A*t.Width*math.Sqrt(2*math.Pi)
+	case Algebraic:
+		if t.Power <= 1 {
+			return math.Inf(1)
+		}
+		return flat + 2*A*t.Width/(t.Power-1)
+	case Compact:
+		return flat + 2*A*t.Width
+	}
+	return math.Inf(1)
+}
+
+// termRayFrom is rayFrom in float64 for a reduced distance x0 ≥ 0 beyond
+// the plateau.
+func termRayFrom(t EnvelopeTerm, x0, h float64) float64 {
+	A := t.Amplitude
+	switch t.Decay {
+	case Exponential:
+		return A * math.Exp(-t.Rate*x0) / -math.Expm1(-t.Rate*h)
+	case Gaussian:
+		s := t.Width
+		u := x0 / s
+		g0 := math.Exp(-0.5 * u * u)
+		e := (2*x0*h + h*h) / (2 * s * s)
+		b1 := g0 / -math.Expm1(-e)
+		if e > 2 {
+			// b1 is within 16% of g0 ≤ b2: skip the integral bound.
+			return A * b1
+		}
+		b2 := g0 + s*math.Sqrt(math.Pi/2)*math.Erfc(u/math.Sqrt2)/h
+		return A * math.Min(b1, b2)
+	case Algebraic:
+		if t.Power <= 1 {
+			return math.Inf(1)
+		}
+		a := 1 + x0/t.Width
+		c := h / t.Width
+		first := math.Pow(a, -t.Power)
+		return A * (first + a*first/(c*(t.Power-1)))
+	case Compact:
+		if x0 > t.Width {
+			return 0
+		}
+		return A * (math.Floor((t.Width-x0)/h) + 1)
+	}
+	return math.Inf(1)
+}
+
+// envRay returns Σ_{j≥0} env(x0 + dir·j·h) in float64.
+func envRay(e Envelope, x0 float64, dir int, h float64) float64 {
+	s := 0.0
+	for _, t := range e {
+		d := x0 - t.Center
+		if dir < 0 {
+			d = -d
+		}
+		s += termRay(t, d, h)
+	}
+	return s
+}
+
+// envReach returns the largest distance from c at which the envelope may
+// still exceed eps: beyond it every term is below eps.
+func envReach(e Envelope, c, eps float64) float64 {
+	r := 0.0
+	for _, t := range e {
+		var d float64
+		A := t.Amplitude
+		switch {
+		case A <= eps:
+			d = 0
+		case t.Decay == Exponential:
+			d = math.Log(A/eps) / t.Rate
+		case t.Decay == Gaussian:
+			d = t.Width * math.Sqrt(2*math.Log(A/eps))
+		case t.Decay == Algebraic:
+			d = t.Width * (math.Pow(A/eps, 1/t.Power) - 1)
+		case t.Decay == Compact:
+			d = t.Width
+		}
+		r = math.Max(r, math.Abs(t.Center-c)+t.Plateau+d)
+	}
+	return r
+}
+
+// alias returns the model of the aliasing bound for step h: the sup over
+// the sampled frequencies of Σ_{l≠0} |F(ξ + lP)| (any shift) or of
+// |Σ_{l≠0} F(ξ + lP) e^{i2πls/h}| (fixed shift), P = 2π/h, with the
+// envelope remainder added.
+func (m *planModel) alias(h float64) float64 {
+	P := 2 * math.Pi / h
+	worst := 0.0
+	for _, xi := range m.xis {
+		var a float64
+		if m.tr == nil {
+			a = envRay(m.spectral, xi+P, 1, P) + envRay(m.spectral, xi-P, -1, P)
+		} else {
+			a = m.exactAlias(xi, P, h)
+		}
+		worst = math.Max(worst, a)
+	}
+	return worst
+}
+
+func (m *planModel) exactAlias(xi, P, h float64) float64 {
+	fixed := !m.anyShift && !m.wide
+	var ph complex128
+	if fixed {
+		u := m.shift / h
+		u -= math.Round(u)
+		ph = cmplx.Exp(complex(0, 2*math.Pi*u))
+	}
+	var sum complex128
+	abs := 0.0
+	rot := complex(1, 0)
+	for l := 1; ; l++ {
+		r := m.tr(xi + float64(l)*P)
+		lf := m.tr(xi - float64(l)*P)
+		if fixed {
+			rot *= ph
+			sum += r*rot + lf*cmplx.Conj(rot)
+		} else {
+			abs += cmplx.Abs(r) + cmplx.Abs(lf)
+		}
+		next := float64(l + 1)
+		rem := envRay(m.spectral, xi+next*P, 1, P) + envRay(m.spectral, xi-next*P, -1, P)
+		cur := abs
+		if fixed {
+			cur = cmplx.Abs(sum)
+		}
+		if rem <= m.remGoal || rem <= 0x1p-60*cur || rem == 0 {
+			return cur + rem
+		}
+		if l >= modelTerms {
+			m.capped = math.Max(m.capped, rem)
+			return cur + rem
+		}
+	}
+}
+
+// trunc returns the model of the truncation bound for N samples of step h:
+// the sup over the sampled shifts of h·Σ_{k omitted} |f(x_k)|.
+func (m *planModel) trunc(h float64, n int64) float64 {
+	if !m.anyShift {
+		t := m.shift - m.center
+		if n%2 == 0 {
+			t += h / 2
+		}
+		return m.truncAt(h, n, t)
+	}
+	a := m.truncAt(h, n, -h/2)
+	b := m.truncAt(h, n, h/2)
+	c := m.truncAt(h, n, 0)
+	return math.Max(a, math.Max(b, c))
+}
+
+// truncAt is the truncation for a window centred at center + t: the
+// omitted samples lie at center + t ± h·((N+1)/2 + i), i ≥ 0.
+func (m *planModel) truncAt(h float64, n int64, t float64) float64 {
+	M := float64(n+1) / 2
+	xr := m.center + t + M*h
+	xl := m.center + t - M*h
+	if m.val == nil {
+		return h * (envRay(m.spatial, xr, 1, h) + envRay(m.spatial, xl, -1, h))
+	}
+	// The first pair is always summed (the certificate does so unless the
+	// whole truncation is negligible).
+	sum := 0.0
+	for i := 0; ; i++ {
+		sum += h * (cmplx.Abs(m.val(xr)) + cmplx.Abs(m.val(xl)))
+		xr += h
+		xl -= h
+		rem := h * (envRay(m.spatial, xr, 1, h) + envRay(m.spatial, xl, -1, h))
+		if rem == 0 || rem <= m.remGoal || rem <= 0x1p-60*sum {
+			return sum + rem
+		}
+		if i >= modelTerms {
+			m.capped = math.Max(m.capped, rem)
+			return sum + rem
+		}
+	}
+}
+
+// rounding returns the rounding bound of the engine for N samples of step
+// h (roundingBound with the window sum of the budget).
+func (m *planModel) rounding(h float64, n int64) float64 {
+	const u = unitRoundoff
+	nu := float64(n+3) * u
+	rel := nu/(1-nu) + m.ulps*u
+	if m.xiMag != 0 {
+		// max |x_k|: the window's farther end, plus h/2 for any shift.
+		x := math.Abs(m.gridShift(h, n)) + h*float64(n/2)
+		if m.anyShift {
+			x += h / 2
+		}
+		rel += u * (m.xiMag*x + 4)
+	}
+	if h != m.sH {
+		m.sH = h
+		m.sVal = 0
+		for _, t := range m.spatial {
+			m.sVal += latticeTermSumFloat(t, h)
+		}
+	}
+	return rel * m.sVal
+}
+
+// latticeTermSumFloat is latticeTermSum in float64.
+func latticeTermSumFloat(t EnvelopeTerm, h float64) float64 {
+	A := t.Amplitude
+	best := termIntegral(t) + h*A
+	if t.Plateau == 0 {
+		switch t.Decay {
+		case Gaussian:
+			a := 2 * math.Pi * math.Pi * t.Width * t.Width / (h * h)
+			theta := 1 + 2*math.Exp(-a)/-math.Expm1(-3*a)
+			best = math.Min(best, A*t.Width*math.Sqrt(2*math.Pi)*theta)
+		case Exponential:
+			ah := t.Rate * h
+			best = math.Min(best, A*h*(1+math.Exp(-ah))/-math.Expm1(-ah))
+		}
+	}
+	return best
+}
+
+// gridShift returns the shift of the planned grid: the centre for odd N
+// and the centre less h/2 for even N (any shift), or the fixed shift.
+func (m *planModel) gridShift(h float64, n int64) float64 {
+	if !m.anyShift {
+		return m.shift
+	}
+	if n%2 == 0 {
+		return m.center - h/2
+	}
+	return m.center
+}
+
+// total returns the model of the whole budget.
+func (m *planModel) total(h float64, n int64) float64 {
+	return m.alias(h) + m.trunc(h, n) + m.rounding(h, n)
+}
