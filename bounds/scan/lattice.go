@@ -20,13 +20,16 @@ import "math"
 //	disjoint  ⇔  |σ0| ≥ 2Ω  or  |k0| ≥ a·max(|σ0|, 2Ω − |σ0|)
 //
 // (derived in the package documentation; contact on the boundary |σ| = Ω
-// or |k| = a|σ| counts as disjoint, since the support is only essential).
+// or |k| = a|σ| counts as disjoint, since the support is only essential,
+// and so does overlap within a relative 10⁻⁹, which rounding can produce
+// at exact contact).
 func bowtieClear(k0, s0, a, omega float64) bool {
+	const slack = 1 - 1e-9
 	k0, s0 = math.Abs(k0), math.Abs(s0)
-	if s0 >= 2*omega {
+	if s0 >= 2*omega*slack {
 		return true
 	}
-	return k0 >= a*math.Max(s0, 2*omega-s0)
+	return k0 >= a*math.Max(s0, 2*omega-s0)*slack
 }
 
 // lattice2 is a 2×2 matrix whose columns generate a lattice: the point with
