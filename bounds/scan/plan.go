@@ -153,14 +153,14 @@ type Result struct {
 // bandwidth Ω. The conditions, their derivation and sources are given in
 // the package documentation:
 //
-//	parallel, standard:    Δs ≤ π/Ω,   p ≥ ρΩ views over 180°
-//	parallel, interlaced:  Δs ≤ 2π/Ω,  p ≥ 2πρ/Δs (≥ ρΩ), p even
-//	fan, standard:         Δα ≤ π/(ΩR), p ≥ 2ρΩ·R/(R+ρ) sources over 360°
-//	fan, interlaced:       Δα ≤ 2π/(ΩR), p ≥ 4πρ/((R−ρ)Δα), p even; R > 3ρ
+//	parallel, standard:    Δs ≤ π/Ω,  p ≥ ρΩ views over 180°
+//	parallel, interlaced:  Δs ≤ 2π/Ω, p ≥ K + 3.77·K^{1/3}, K = 2πρ/Δs, p even
+//	fan, standard:         Δα ≤ π/(Ω(R+ρ)), p ≥ 2ρΩ·R/(R−ρ) sources over 360°
+//	fan, interlaced:       not offered
 //
-// Counts are rounded up from outward-rounded enclosures (package bounds),
-// so every returned layout satisfies its conditions exactly. Errors are
-// *bounds.ParamError wrapping bounds.ErrInvalid (bad field, named
+// Counts are exact ceilings (package doc, "Counting and rounding"), so
+// every returned layout satisfies its conditions. Errors are
+// *bounds.ParamError wrapping bounds.ErrInvalid (a bad field, named
 // "scan.radius", "scan.bandwidth", ...) or bounds.ErrWorkLimit (more than
 // MaxSamples line integrals).
 func Plan(req Request) (Result, error) {
@@ -365,6 +365,11 @@ func planParallel(rho float64, b band) (std, inter Layout, err error) {
 		Note: "needs a reconstruction adapted to the lattice: filtered backprojection with " +
 			"the kernel cut off at 2π/Δs and filtered projections oversampled 64-fold " +
 			"before linear interpolation (ReconstructParallel with Interlaced data)",
+	}
+	if inter.Samples >= std.Samples {
+		inter = Layout{Scheme: Interlaced, Note: fmt.Sprintf("not offered: at ρΩ = %.3g the "+
+			"interlaced scheme (%d samples) is not cheaper than the standard one (%d)",
+			rw.Mid(), inter.Samples, std.Samples)}
 	}
 	return std, inter, nil
 }

@@ -47,6 +47,10 @@ func TestPlanWorkedCases(t *testing.T) {
 		// 360° (100 over 180°); here ⌈200.0002⌉ = 201.
 		{"fan far source", Request{Geometry: FanBeam, Radius: 1, Bandwidth: 100, SourceRadius: 1e6}, Standard,
 			1e6 * math.Asin(1e-6) / 32, math.Asin(1e-6) / 32, 65, 201, 201 * 65},
+		// Small object, ρΩ = 2.5: q = 1, Δs = ρ, 3 rays, p = 3. Interlaced
+		// would need K + 3.77·K^{1/3} = 8.76 → 10 views and 15 samples, more
+		// than the standard 9, so it is not offered (checked below).
+		{"small ρΩ", Request{Radius: 0.5, Bandwidth: 5}, Standard, 0.5, 0, 3, 3, 9},
 	}
 	for _, tt := range tests {
 		res, err := Plan(tt.req)
@@ -78,6 +82,24 @@ func TestPlanWorkedCases(t *testing.T) {
 	}
 }
 
+func TestPlanInterlacedNotCheaper(t *testing.T) {
+	t.Parallel()
+	res, err := Plan(Request{Radius: 0.5, Bandwidth: 5})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if res.Interlaced.Offered || !strings.Contains(res.Interlaced.Note, "not cheaper") {
+		t.Errorf("small ρΩ: interlaced layout %+v, want not offered", res.Interlaced)
+	}
+	fan, err := Plan(Request{Geometry: FanBeam, Radius: 1, Bandwidth: 100, SourceRadius: 10})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if fan.Interlaced.Offered || fan.Interlaced.Note == "" {
+		t.Errorf("fan: interlaced layout %+v, want not offered with a note", fan.Interlaced)
+	}
+}
+
 // TestPlanConditionsHold checks on a sweep of inputs that every layout
 // meets its stated conditions and that one view fewer, or a count of
 // detectors one smaller, would break them.
@@ -102,6 +124,9 @@ func TestPlanConditionsHold(t *testing.T) {
 				t.Errorf("ρ=%g Ω=%g: %d detectors, fewer would do", rho, omega, s.Detectors)
 			}
 			in := res.Interlaced
+			if !in.Offered {
+				continue
+			}
 			if in.DetectorSpacing > 2*math.Pi/omega || in.Views%2 != 0 || float64(in.Views) < 2*math.Pi*rho/in.DetectorSpacing {
 				t.Errorf("ρ=%g Ω=%g: interlaced layout %+v breaks its conditions", rho, omega, in)
 			}
