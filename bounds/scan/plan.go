@@ -243,6 +243,10 @@ func (req Request) validate() (bounds.Interval, string, error) {
 				"must exceed scan.radius (the source must lie outside the object), got R = %g, ρ = %g",
 				req.SourceRadius, req.Radius)
 		}
+		if !(req.Radius/req.SourceRadius >= 1e-12) {
+			return bounds.Interval{}, "", invalid("scan.source_radius",
+				"R/ρ = %g exceeds 10¹²; use the parallel-beam plan", req.SourceRadius/req.Radius)
+		}
 	}
 	// ρΩ is the leading size of every count; screen it before rounding.
 	if rw := bounds.Point(req.Radius).Mul(omega); !(rw.Hi <= MaxSamples) {

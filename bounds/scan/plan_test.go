@@ -248,6 +248,7 @@ func TestPlanBadInput(t *testing.T) {
 		{"short scan on parallel", Request{Radius: 1, Bandwidth: 1, ShortScan: true}, "scan.short_scan", bounds.ErrInvalid},
 		{"fan without source radius", Request{Geometry: FanBeam, Radius: 1, Bandwidth: 1}, "scan.source_radius", bounds.ErrInvalid},
 		{"source inside object", Request{Geometry: FanBeam, Radius: 2, Bandwidth: 1, SourceRadius: 2}, "scan.source_radius", bounds.ErrInvalid},
+		{"source at infinity", Request{Geometry: FanBeam, Radius: 1e-200, Bandwidth: 1, SourceRadius: 1e200}, "scan.source_radius", bounds.ErrInvalid},
 		{"nan source radius", Request{Geometry: FanBeam, Radius: 2, Bandwidth: 1, SourceRadius: nan}, "scan.source_radius", bounds.ErrInvalid},
 		{"huge ρΩ", Request{Radius: 1e6, Bandwidth: 1e6}, "scan.bandwidth", bounds.ErrWorkLimit},
 		{"huge samples", Request{Radius: 1, Bandwidth: 1e5}, "scan.samples", bounds.ErrWorkLimit},
