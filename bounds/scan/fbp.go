@@ -277,8 +277,12 @@ func backprojectRow(row, qd []float64, u0, du float64) {
 		if du < 0 {
 			a, b = b, a
 		}
-		lo = int(math.Max(0, math.Min(float64(len(row)), math.Ceil(a)-1)))
-		hi = int(math.Max(0, math.Min(float64(len(row)), math.Floor(b)+2)))
+		if a = math.Ceil(a) - 1; a > 0 && a < float64(len(row)) {
+			lo = int(a)
+		}
+		if b = math.Floor(b) + 2; b >= 0 && b < float64(len(row)) {
+			hi = int(b)
+		}
 	}
 	for lo < hi && !in(lo) {
 		lo++

@@ -362,3 +362,32 @@ func BenchmarkReconstructFan(b *testing.B) {
 		}
 	})
 }
+
+// TestBackprojectRow checks the interpolation and the range clipping of
+// one row against a direct evaluation, including rows that miss the
+// projection and non-finite positions.
+func TestBackprojectRow(t *testing.T) {
+	t.Parallel()
+	q := []float64{1, 3, 2, 5, 4}
+	qd := make([]float64, 2*(len(q)-1))
+	pairs(qd, q)
+	direct := func(u float64) float64 {
+		if !(u >= 0 && u < float64(len(q)-1)) {
+			return 0
+		}
+		k := int(u)
+		return q[k] + (u-float64(k))*(q[k+1]-q[k])
+	}
+	for _, tt := range []struct{ u0, du float64 }{
+		{-2.3, 0.7}, {5.5, -0.45}, {0, 0}, {1.25, 0}, {-10, 0.1}, {100, 1}, {3.99, -1e-3},
+		{math.NaN(), 1}, {0, math.Inf(1)}, {math.Inf(-1), 1},
+	} {
+		row := make([]float64, 12)
+		backprojectRow(row, qd, tt.u0, tt.du)
+		for i, got := range row {
+			if want := direct(tt.u0 + float64(i)*tt.du); math.Abs(got-want) > 1e-14 {
+				t.Errorf("u0=%g du=%g: row[%d] = %g, want %g", tt.u0, tt.du, i, got, want)
+			}
+		}
+	}
+}
