@@ -194,6 +194,15 @@ func radialProfile(e Envelope, extra float64) Envelope {
 	return out
 }
 
+// addUpNZ is addUp that keeps a sum exact when b is 0, so that a bound made
+// of zeros stays 0 instead of creeping up by subnormals.
+func addUpNZ(a, b float64) float64 {
+	if b == 0 {
+		return a
+	}
+	return addUp(a, b)
+}
+
 // lowerAt returns a lower bound of a term of a centred profile at
 // distance d ≥ 0.
 func (t EnvelopeTerm) lowerAt(d float64) float64 {
@@ -326,7 +335,7 @@ func (pc *pointCounter) tail(prof Envelope, R, nLo float64) float64 {
 				}
 				c = math.Max(0, addUp(s, -mulDown(nLo, t.lowerAt(R))))
 			}
-			total = addUp(total, c)
+			total = addUpNZ(total, c)
 		}
 		if math.IsNaN(total) {
 			total = math.Inf(1)
