@@ -203,6 +203,16 @@ func addUpNZ(a, b float64) float64 {
 	return addUp(a, b)
 }
 
+// upperAt returns an upper bound of a centred profile at distance d ≥ 0
+// (Envelope.At without the subnormal creep of adding zeros).
+func upperAt(prof Envelope, d float64) float64 {
+	s := 0.0
+	for _, t := range prof {
+		s = addUpNZ(s, t.at(d))
+	}
+	return s
+}
+
 // lowerAt returns a lower bound of a term of a centred profile at
 // distance d ≥ 0.
 func (t EnvelopeTerm) lowerAt(d float64) float64 {

@@ -190,7 +190,7 @@ func (dl *dualList) bound(prof Envelope, a float64) float64 {
 	nIn := 1.0 // the origin
 	sum := 0.0
 	for _, nm := range dl.norms {
-		sum = addUpNZ(sum, prof.At(Point(mulDown(nm.Lo, k.Lo))))
+		sum = addUpNZ(sum, upperAt(prof, mulDown(nm.Lo, k.Lo)))
 		if mulUp(nm.Hi, k.Hi) <= Ract {
 			nIn++
 		}
@@ -250,7 +250,7 @@ func LatticeAliasBound(ctx context.Context, lat Lattice, target LatticeTarget, s
 	ps := lat.d.dual
 	k := ps.scale
 	pc := ps.counter(k)
-	first := prof.At(Point(pc.shortest()))
+	first := upperAt(prof, pc.shortest())
 	goal := math.Max(set.Tol, math.Max(relGoal*first, 0x1p-1022))
 	w := &work{ctx: ctx, limit: set.maxTerms(), what: "lattice alias bound"}
 	R, ok := pc.radiusFor(prof, goal, float64(w.limit))
