@@ -356,32 +356,99 @@ func (pc *pointCounter) tail(prof Envelope, R, nLo float64) float64 {
 }
 
 // radiusFor returns a radius R whose tail bound (with the volume lower
-// bound for the points inside) is at most goal, searching upward from the
-// shortest Gram-Schmidt length; ok is false if R would hold more than
-// maxPoints points, or the profile is not summable.
+// bound for the points inside) is at most goal; ok is false if R would hold
+// more than maxPoints points, or the profile is not summable. The search
+// runs on a fast float64 estimate of the tail (tailEstimate), then steps R
+// up by 2% until the rigorous bound meets the goal.
 func (pc *pointCounter) radiusFor(prof Envelope, goal, maxPoints float64) (R float64, ok bool) {
-	R = math.Max(pc.shortest()/2, math.SmallestNonzeroFloat64)
 	if !summable(prof, pc.n) {
 		return 0, false
 	}
+	R = math.Max(pc.shortest()/2, math.SmallestNonzeroFloat64)
 	lo := 0.0
-	for pc.tail(prof, R, 0) > goal {
+	for pc.tailEstimate(prof, R) > goal {
 		if pc.lower(R) > maxPoints || R > math.MaxFloat64/4 {
 			return R, false
 		}
 		lo = R
 		R *= 2
 	}
-	// Bisect between lo (too small, or 0) and R (good).
-	for i := 0; i < 40 && lo > 0 && R-lo > 1e-6*R; i++ {
+	for i := 0; i < 40 && lo > 0 && R-lo > 0.01*R; i++ {
 		m := lo + (R-lo)/2
-		if pc.tail(prof, m, 0) <= goal {
+		if pc.tailEstimate(prof, m) <= goal {
 			R = m
 		} else {
 			lo = m
 		}
 	}
+	for i := 0; pc.tail(prof, R, 0) > goal; i++ {
+		if pc.lower(R) > maxPoints || i > 2000 || R > math.MaxFloat64/4 {
+			return R, false
+		}
+		R *= 1.02
+	}
 	return R, true
+}
+
+// tailEstimate is pc.tail in plain float64 with the volume polynomial
+// only: an estimate to steer the search for a radius, never a bound.
+func (pc *pointCounter) tailEstimate(prof Envelope, R float64) float64 {
+	nLo := pc.lower(R)
+	total := 0.0
+	for _, t := range prof {
+		A, p := t.Amplitude, t.Plateau
+		if A == 0 {
+			continue
+		}
+		if t.Decay == Compact {
+			if r0 := p + t.Width; R < r0 {
+				total += A * math.Max(0, evalPoly(pc.vol, r0)-nLo)
+			}
+			continue
+		}
+		Rp := math.Max(R, p)
+		U := Rp - p
+		s := 0.0
+		switch t.Decay {
+		case Exponential:
+			a := t.Rate
+			E := A * math.Exp(-a*U)
+			for k, c := range pc.vol {
+				m, f := 0.0, 1.0
+				for i := 0; i <= k; i++ {
+					m += f * math.Pow(Rp, float64(k-i)) / math.Pow(a, float64(i))
+					f *= float64(k - i)
+				}
+				s += c * E * m
+			}
+			total += math.Max(0, s-nLo*E)
+		case Gaussian:
+			sg := t.Width
+			s2 := sg * sg
+			g := math.Exp(-U * U / (2 * s2))
+			K := make([]float64, pc.n+2)
+			K[0] = sg * math.Sqrt(math.Pi/2) * math.Erfc(U/(sg*math.Sqrt2))
+			K[1] = s2 * g
+			for j := 2; j <= pc.n+1; j++ {
+				K[j] = s2 * (math.Pow(U, float64(j-1))*g + float64(j-1)*K[j-2])
+			}
+			for k, c := range pc.vol {
+				m := 0.0
+				for j := 0; j <= k; j++ {
+					m += binomial(k, j) * math.Pow(p, float64(k-j)) * K[j+1] / s2
+				}
+				s += c * A * m
+			}
+			total += math.Max(0, s-nLo*A*g)
+		default:
+			M := t.moments(R, pc.n)
+			for k, c := range pc.vol {
+				s += c * M[k]
+			}
+			total += math.Max(0, s-nLo*t.lowerAt(R))
+		}
+	}
+	return total
 }
 
 // summable reports whether Σ_{v∈L} P(|v - t|) is finite for every lattice
