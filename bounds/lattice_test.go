@@ -380,3 +380,5 @@ func TestCountBound(t *testing.T) {
 	}
 	t.Logf("CountBound/N(r) at most %.3g where N(r) > 50", worst)
 }
+
+func newTestRand(seed uint64) *rand.Rand { return rand.New(rand.NewPCG(seed, seed)) }
