@@ -160,7 +160,7 @@ func sinhcSeries(z Interval) Interval {
 	term := Point(1)
 	for k := 1; k < 30; k++ {
 		kk := float64(k)
-		term = term.Mul(z).Div(Point((2*kk) * (2*kk + 1)))
+		term = term.Mul(z).Div(Point((2 * kk) * (2*kk + 1)))
 		sum = sum.Add(term)
 		r := divUp(zm, (2*kk+2)*(2*kk+3))
 		tail := divUp(mulUp(term.Mag(), r), addDown(1, -r))
