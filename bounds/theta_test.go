@@ -95,7 +95,7 @@ func TestGaussianThetaJacobi(t *testing.T) {
 		// -iτ = h²/(2πσ²), iτ'/π = -2σ²/h², zτ' = i(2πσ²/h²) z.
 		pi := bigref.Pi()
 		c2 := bigref.Quo(bigref.Mul(bigref.Mul(two, pi), s2), bigref.Mul(bh, bh)) // 2πσ²/h² = 1/(-iτ)
-		qp := bigref.Exp(bigref.Neg(bigref.Mul(pi, c2)))                           // e^{-2π²σ²/h²}
+		qp := bigref.Exp(bigref.Neg(bigref.Mul(pi, c2)))                          // e^{-2π²σ²/h²}
 		zp := bigref.Complex{Re: bigref.Neg(bigref.Mul(c2, z.Im)), Im: bigref.Mul(c2, z.Re)}
 		z2 := z.Mul(z)
 		k := bigref.Neg(bigref.Quo(bigref.Mul(two, s2), bigref.Mul(bh, bh)))
