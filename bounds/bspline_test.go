@@ -336,3 +336,39 @@ func TestAutoSideZeroAliasSum(t *testing.T) {
 		t.Errorf("error = %v, want it to contain 0 (every alias copy is 0)", r.Error)
 	}
 }
+
+var sinkSum SampledSum
+
+// BenchmarkAliasSumBSpline times AliasSum for B-splines of a few orders
+// on an infinite grid at a nonzero frequency (spatial side, a handful of
+// samples).
+func BenchmarkAliasSumBSpline(b *testing.B) {
+	for _, m := range []int{1, 4, 8} {
+		f := BSplineFamily{Order: m}
+		b.Run(fmt.Sprintf("order=%d", m), func(b *testing.B) {
+			b.ReportAllocs()
+			for i := 0; i < b.N; i++ {
+				r, err := AliasSum(context.Background(), f, Grid{Step: 0.7, Shift: 0.123}, 0.9, Settings{})
+				if err != nil {
+					b.Fatal(err)
+				}
+				sinkSum = r
+			}
+		})
+	}
+}
+
+var sinkC Complex
+
+// BenchmarkBSplineEval times one value and one transform enclosure.
+func BenchmarkBSplineEval(b *testing.B) {
+	for _, m := range []int{1, 4, 8} {
+		f := BSplineFamily{Order: m}
+		b.Run(fmt.Sprintf("order=%d", m), func(b *testing.B) {
+			b.ReportAllocs()
+			for i := 0; i < b.N; i++ {
+				sinkC = f.Value(Point(0.3)).Add(f.Transform(Point(2.1)))
+			}
+		})
+	}
+}

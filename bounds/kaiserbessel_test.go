@@ -250,3 +250,34 @@ func TestKaiserBesselContainment(t *testing.T) {
 	}
 	t.Logf("%d parts contained; worst relative width (non-tiny) %.3g; worst width/scale %.3g", st.contained, st.worstRel, st.worstAbs)
 }
+
+// BenchmarkAliasSumKaiserBessel times AliasSum for a typical gridding
+// kernel (W = 6, β = 14.1) at unit spacing and a finer one.
+func BenchmarkAliasSumKaiserBessel(b *testing.B) {
+	f := KaiserBesselFamily{Width: 6, Beta: 14.1}
+	for _, h := range []float64{1, 0.25} {
+		b.Run(fmt.Sprintf("h=%g", h), func(b *testing.B) {
+			b.ReportAllocs()
+			for i := 0; i < b.N; i++ {
+				r, err := AliasSum(context.Background(), f, Grid{Step: h, Shift: 0.123}, 0.9, Settings{})
+				if err != nil {
+					b.Fatal(err)
+				}
+				sinkSum = r
+			}
+		})
+	}
+}
+
+// BenchmarkKaiserBesselEval times one value and one transform enclosure.
+func BenchmarkKaiserBesselEval(b *testing.B) {
+	for _, beta := range []float64{2.3, 14.1, 40} {
+		f := KaiserBesselFamily{Width: 6, Beta: beta}
+		b.Run(fmt.Sprintf("beta=%g", beta), func(b *testing.B) {
+			b.ReportAllocs()
+			for i := 0; i < b.N; i++ {
+				sinkC = f.Value(Point(0.3)).Add(f.Transform(Point(2.1)))
+			}
+		})
+	}
+}

@@ -81,30 +81,30 @@ func besselI0(x Interval) Interval {
 // y ≤ 700²/4 this takes fewer than 700 terms. The result is +∞ above if it
 // overflows.
 func besselI0Quarter(y Interval) Interval {
-	if y.Lo < 0 {
-		y.Lo = 0
-	}
-	if y.Hi < 0 {
-		y.Hi = 0
-	}
-	sum := Point(1)
-	term := Point(1)
+	lo, hi := math.Max(y.Lo, 0), math.Max(y.Hi, 0)
+	// Every quantity below is ≥ 0, so directed rounding of the endpoints
+	// needs no sign cases: [tLo, tHi] encloses the term, [sLo, sHi] the sum.
+	tLo, tHi := 1.0, 1.0
+	sLo, sHi := 1.0, 1.0
 	for k := 1; k < 4096; k++ {
-		kk := float64(k)
-		term = term.Mul(y).Div(Point(kk * kk))
-		sum = sum.Add(term)
-		r := divUp(y.Hi, (kk+1)*(kk+1))
-		if r < 0.5 {
-			tail := divUp(mulUp(term.Hi, r), addDown(1, -r))
-			if tail <= mulDown(seriesGoal, sum.Lo) {
-				return Interval{sum.Lo, addUp(sum.Hi, tail)}
+		kk := float64(k * k) // exact
+		tLo = divDown(mulDown(tLo, lo), kk)
+		tHi = divUp(mulUp(tHi, hi), kk)
+		sLo = addDown(sLo, tLo)
+		sHi = addUp(sHi, tHi)
+		if math.IsInf(sHi, 1) {
+			break
+		}
+		kn := float64(k+1) * float64(k+1)
+		if hi < 0.5*kn { // r = y/(k+1)² < 1/2
+			r := divUp(hi, kn)
+			tail := divUp(mulUp(tHi, r), addDown(1, -r))
+			if tail <= mulDown(seriesGoal, sLo) {
+				return Interval{sLo, addUp(sHi, tail)}
 			}
 		}
-		if math.IsInf(sum.Hi, 1) {
-			return Interval{sum.Lo, math.Inf(1)}
-		}
 	}
-	return Interval{sum.Lo, math.Inf(1)}
+	return Interval{sLo, math.Inf(1)}
 }
 
 // sinhcSqrt returns the entire function
