@@ -21,8 +21,9 @@ type Factored interface {
 }
 
 // Separable is the product f(x) = Π_j f_j(x_j) of one-dimensional families,
-// one per axis; its transform is Π_j F_j(ξ_j). Axes must hold between 1 and
-// MaxDim families and must not be modified after the value is built.
+// one per axis; its transform is Π_j F_j(ξ_j) (Fubini). Axes must hold
+// between 1 and MaxDim valid families (see Validate; the entry points check
+// it) and must not be modified after the value is built.
 type Separable struct {
 	Axes []Family
 }
@@ -82,6 +83,9 @@ func (s Separable) Value(x []Interval) Complex {
 	}
 	p := RealC(Point(1))
 	for j, f := range s.Axes {
+		if f == nil {
+			return Complex{entire, entire}
+		}
 		p = p.Mul(f.Value(x[j]))
 	}
 	return p
@@ -95,6 +99,9 @@ func (s Separable) Transform(xi []Interval) Complex {
 	}
 	p := RealC(Point(1))
 	for j, f := range s.Axes {
+		if f == nil {
+			return Complex{entire, entire}
+		}
 		p = p.Mul(f.Transform(xi[j]))
 	}
 	return p

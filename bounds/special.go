@@ -14,7 +14,8 @@ const seriesGoal = 0x1p-62
 
 // sinc returns sin(x)/x, with sinc(0) = 1.
 //
-// Near 0 (|x| ≤ 1) it sums the Maclaurin series (DLMF 4.19.1 divided by x)
+// Near 0 (|x| ≤ 1) it sums the Maclaurin series (DLMF 4.19.1 divided by
+// x, from memory)
 //
 //	sin(x)/x = Σ_{k≥0} (-1)^k x^{2k}/(2k+1)!
 //
@@ -113,10 +114,11 @@ func besselI0Quarter(y Interval) Interval {
 //	     = sin(√-z)/√-z   (z < 0)
 //	     = Σ_{k≥0} z^k/(2k+1)!   (all z; S(0) = 1)
 //
-// (the series is DLMF 4.28.1 for sinh(t)/t with t² = z, and DLMF 4.19.1 for
-// sin(t)/t with t² = -z). For |z| ≤ 1 it sums the series in interval
-// arithmetic: |t_{j+1}/t_j| = |z|/((2j+2)(2j+3)) ≤ r = |z|/((2k+2)(2k+3))
-// for j ≥ k, so the remainder after term k is at most |t_k|·r/(1-r). For
+// (the series are DLMF 4.33.1 for sinh(t)/t with t² = z and DLMF 4.19.1
+// for sin(t)/t with t² = -z; equation numbers from memory). For |z| ≤ 1
+// it sums the series in interval arithmetic: |t_{j+1}/t_j| =
+// |z|/((2j+2)(2j+3)) ≤ r = |z|/((2k+2)(2k+3)) for j ≥ k, so the remainder
+// after term k is at most |t_k|·r/(1-r). For
 // z ≥ 1, S is increasing and evaluated at the endpoints by Sinh and Sqrt;
 // for z ≤ -1 it is sinc(√-z). An interval spanning several of these ranges
 // is split and the pieces joined.
