@@ -103,7 +103,15 @@ func bsplineValue(m int, x Interval) Interval {
 
 // Transform encloses (sin(ξ/2)/(ξ/2))^m.
 func (b BSplineFamily) Transform(xi Interval) Complex {
-	return RealC(sinc(xi.Scale(0.5)).IntPow(b.Order))
+	return RealC(sinc(half(xi)).IntPow(b.Order))
+}
+
+// half returns x/2, exactly unless an endpoint is subnormal-small.
+func half(x Interval) Interval {
+	if (x.Lo == 0 || math.Abs(x.Lo) >= 0x1p-1020) && (x.Hi == 0 || math.Abs(x.Hi) >= 0x1p-1020) {
+		return Interval{x.Lo * 0.5, x.Hi * 0.5}
+	}
+	return x.Scale(0.5)
 }
 
 // Spatial is compact support on [-m/2, m/2] with height M_m(0) (the

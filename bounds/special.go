@@ -23,18 +23,44 @@ const seriesGoal = 0x1p-62
 // remainder is at most the first omitted term (Leibniz). sinc is even and
 // decreasing on [0, 1] (indeed on [0, 4.49]), so an interval inside
 // [-1, 1] is bounded by the series at the endpoints of |x|. For |x| ≥ 1 it
-// is Sin(x)/x in interval arithmetic.
+// is sin/x in interval arithmetic (sincLarge).
 func sinc(x Interval) Interval {
 	a := x.Abs()
 	switch {
 	case a.Hi <= 1:
 		return Interval{sincSeries(a.Hi).Lo, sincSeries(a.Lo).Hi}
 	case a.Lo >= 1:
-		return Sin(a).Div(a)
+		return sincLarge(a)
 	default:
 		near := Interval{sincSeries(1).Lo, sincSeries(a.Lo).Hi}
-		return near.Hull(Sin(Interval{1, a.Hi}).Div(Interval{1, a.Hi}))
+		return near.Hull(sincLarge(Interval{1, a.Hi}))
 	}
+}
+
+// sincLarge encloses sin(x)/x for x in a, 1 ≤ a.Lo. A narrow interval
+// (the usual case: a point carried through a few roundings) takes one sine
+// at a point m of a and the mean-value bound |sin x - sin m| ≤ |x - m|;
+// a wide one takes Sin(a).
+func sincLarge(a Interval) Interval {
+	var s Interval
+	if a.Hi-a.Lo <= 0x1p-20*a.Lo {
+		m := a.Mid()
+		d := math.Max(addUp(m, -a.Lo), addUp(a.Hi, -m))
+		s = sinPoint(m)
+		s = Interval{math.Max(-1, addDown(s.Lo, -d)), math.Min(1, addUp(s.Hi, d))}
+	} else {
+		s = Sin(a)
+	}
+	// s / a with a > 0: the extreme quotients use a.Hi for the endpoint
+	// of s nearer 0 and a.Lo for the farther.
+	lo, hi := divDown(s.Lo, a.Lo), divUp(s.Hi, a.Lo)
+	if s.Lo >= 0 {
+		lo = divDown(s.Lo, a.Hi)
+	}
+	if s.Hi <= 0 {
+		hi = divUp(s.Hi, a.Hi)
+	}
+	return Interval{lo, hi}
 }
 
 // sincSeries encloses sin(v)/v for 0 ≤ v ≤ 1 by the series in sinc.

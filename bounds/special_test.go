@@ -57,7 +57,8 @@ func TestSinc(t *testing.T) {
 // TestSincWide checks that wide arguments give enclosures of every point
 // (sampled finely).
 func TestSincWide(t *testing.T) {
-	boxes := []Interval{{-0.5, 0.25}, {0.2, 3}, {-2, 2}, {0.9, 1.1}, {3, 20}, {-1e-3, 1e-3}}
+	boxes := []Interval{{-0.5, 0.25}, {0.2, 3}, {-2, 2}, {0.9, 1.1}, {3, 20}, {-1e-3, 1e-3},
+		{math.Pi - 1e-7, math.Pi + 1e-7}, {-1.5*math.Pi - 1e-7, -1.5*math.Pi + 1e-7}, {100, 100 + 1e-5}}
 	for _, b := range boxes {
 		z := sinc(b)
 		for i := 0; i <= 1000; i++ {
