@@ -200,30 +200,6 @@ func latticeTermSum(t EnvelopeTerm, h float64) float64 {
 	return best
 }
 
-// farRayTail is Envelope.RayTail, computed faster for rays that start
-// beyond a term's plateau. For such a term RayTail returns
-// min(B(d - p), C) with B the closed-form ray bound (rayFrom) and C a bound
-// for rays that cross the centre; B(d - p) alone is a valid bound there
-// (EnvelopeTerm.tail), and only C is skipped. Terms the ray may cross are
-// bounded by EnvelopeTerm.tail as in RayTail.
-func farRayTail(e Envelope, x0 Interval, dir int, h float64) float64 {
-	s := 0.0
-	for _, t := range e {
-		var d float64
-		if dir >= 0 {
-			d = x0.AddFloat(-t.Center).Lo
-		} else {
-			d = x0.AddFloat(-t.Center).Neg().Lo
-		}
-		if dp := addDown(d, -t.Plateau); dp > 0 {
-			s = addUp(s, rayFromFast(t, dp, h))
-		} else {
-			s = addUp(s, t.tail(d, h))
-		}
-	}
-	return s
-}
-
 // maxAbsX bounds max_k |x_k| over the window for every shift.
 func maxAbsX(g Grid, shifts Interval) float64 {
 	lo, hi := g.Indices()
@@ -278,7 +254,7 @@ func EnvelopeBudget(ctx context.Context, spatial, spectral Envelope, g Grid, ban
 	}
 	for i := 0; i < bandPieces; i++ {
 		x := subinterval(xi, i, bandPieces)
-		a := addUp(farRayTail(spectral, x.Add(P), 1, P.Lo), farRayTail(spectral, x.Sub(P), -1, P.Lo))
+		a := addUp(spectral.RayTail(x.Add(P), 1, P.Lo), spectral.RayTail(x.Sub(P), -1, P.Lo))
 		b.Aliasing = math.Max(b.Aliasing, a)
 	}
 	b.Pieces = bandPieces
@@ -296,7 +272,7 @@ func EnvelopeBudget(ctx context.Context, spatial, spectral Envelope, g Grid, ban
 			sh := subinterval(shifts, i, pieces)
 			xr := Point(g.Step).Scale(float64(hi + 1)).Add(sh)
 			xl := Point(g.Step).Scale(float64(lo - 1)).Add(sh)
-			t := mulUp(g.Step, addUp(farRayTail(spatial, xr, 1, g.Step), farRayTail(spatial, xl, -1, g.Step)))
+			t := mulUp(g.Step, addUp(spatial.RayTail(xr, 1, g.Step), spatial.RayTail(xl, -1, g.Step)))
 			b.Truncation = math.Max(b.Truncation, t)
 		}
 		b.Pieces = max(pieces, bandPieces)
@@ -383,6 +359,16 @@ func FamilyBudget(ctx context.Context, f Family, g Grid, band Band, opt BudgetOp
 		return Budget{}, err
 	}
 	b.Exact = true
+	// The envelope bounds are valid too, and can be tighter where the
+	// band's branch and bound stopped early because the other item
+	// dominated: keep the smaller of each pair. (At a single frequency
+	// nothing stops early, and the envelope bounds are not computed.)
+	if band.HalfWidth > 0 {
+		if eb, err := EnvelopeBudget(ctx, f.Spatial(), f.Spectral(), g, band, opt); err == nil {
+			b.Aliasing = math.Min(b.Aliasing, eb.Aliasing)
+			b.Truncation = math.Min(b.Truncation, eb.Truncation)
+		}
+	}
 	S := windowSum(f.Spatial(), g, shifts)
 	b.Rounding = roundingBound(g.Count, opt.sampleUlps(), band.Interval().Mag(), maxAbsX(g, shifts), S)
 	b.total()
@@ -411,21 +397,29 @@ type familyBudgeter struct {
 func (fb *familyBudgeter) at(xi Interval) (Budget, error) {
 	anyShift := fb.opt.AnyShift
 	wide := xi.Lo != xi.Hi
-	s := aliasSummer{ctx: fb.ctx, f: fb.f, g: fb.g, xi: xi, shift: fb.shifts, abs: anyShift, set: fb.opt.Settings}
+	s := newSummer(fb.ctx, fb.f, fb.g, xi, fb.shifts, anyShift, fb.opt.Settings)
 	F := fb.f.Transform(xi)
 	P := TwoPi.Div(Point(fb.g.Step))
 	side := fb.opt.Side
+	limit := int64(math.MaxInt64)
 	if side == AutoSide {
-		side = s.chooseSide(F, P)
+		var L int64
+		side, L = s.chooseSide(F, P)
+		limit = max(4*L, 64)
 	}
 	var b Budget
 	if side == SpectralSide {
-		alias, err := s.leanSpectralAlias(P, F)
-		if err != nil {
+		alias, _, done, err := s.spectralAlias(P, F, limit)
+		switch {
+		case err != nil && fb.opt.Side == SpectralSide:
 			return Budget{}, err
+		case err == nil && done:
+			b.Aliasing = alias.Mag()
+		default:
+			side = SpatialSide // the automatic choice fell short: see AliasSum
 		}
-		b.Aliasing = alias.Mag()
-	} else {
+	}
+	if side == SpatialSide {
 		// Spatial side: the error of the infinite grid is T∞ - F, taken at
 		// each shift piece.
 		pieces := 1
@@ -433,8 +427,7 @@ func (fb *familyBudgeter) at(xi Interval) (Budget, error) {
 			pieces = shiftPieces
 		}
 		for i := 0; i < pieces; i++ {
-			sp := aliasSummer{ctx: fb.ctx, f: fb.f, g: Grid{Step: fb.g.Step}, xi: xi,
-				shift: subinterval(fb.shifts, i, pieces), set: fb.opt.Settings}
+			sp := newSummer(fb.ctx, fb.f, Grid{Step: fb.g.Step}, xi, subinterval(fb.shifts, i, pieces), false, fb.opt.Settings)
 			T, _, err := sp.spatialInfinite(F.Mag())
 			if err != nil {
 				return Budget{}, err
@@ -452,8 +445,7 @@ func (fb *familyBudgeter) at(xi Interval) (Budget, error) {
 			b.Truncation = t
 			fb.pieces = fb.truncPieces
 		} else {
-			st := aliasSummer{ctx: fb.ctx, f: fb.f, g: fb.g, xi: xi,
-				shift: fb.shifts, set: fb.opt.Settings}
+			st := newSummer(fb.ctx, fb.f, fb.g, xi, fb.shifts, false, fb.opt.Settings)
 			trunc, _, _, err := st.omittedSum(F.Mag())
 			if err != nil {
 				return Budget{}, err
@@ -466,7 +458,7 @@ func (fb *familyBudgeter) at(xi Interval) (Budget, error) {
 
 // truncPieces is the number of subintervals the shift range is cut into
 // for the explicit terms of absTruncation.
-const truncPieces = 8
+const truncPieces = 16
 
 // absTruncation bounds the truncation in modulus, sup over the shift range
 // of h Σ_{k omitted} |f(s + hk)|, which does not depend on the frequency.
@@ -475,7 +467,7 @@ const truncPieces = 8
 // of the shift range (the sup of a sum over a piece is at most the sum of
 // its terms' sups, and for a tail that decreases away from the window each
 // sup sits at the piece's inner end); the samples beyond them are bounded
-// once, for the whole range, by the spatial envelope (farRayTail). m
+// once, for the whole range, by the spatial envelope (RayTail). m
 // doubles until that remainder meets omittedSum's goal: at most
 // max(Settings.Tol, 2⁻⁶⁰ of the explicit sum), the first pair always
 // summed unless the remainder is itself within Settings.Tol.
@@ -487,15 +479,14 @@ func (fb *familyBudgeter) absTruncation() (float64, error) {
 	h := g.Step
 	lo, hi := g.Indices()
 	env := fb.f.Spatial()
-	whole := aliasSummer{ctx: fb.ctx, f: fb.f, g: g, xi: Point(0), shift: fb.shifts, abs: true, set: fb.opt.Settings}
-	mid := whole
-	mid.shift = Point(fb.shifts.Mid())
+	whole := newSummer(fb.ctx, fb.f, g, Point(0), fb.shifts, true, fb.opt.Settings)
+	mid := newSummer(fb.ctx, fb.f, g, Point(0), Point(fb.shifts.Mid()), true, fb.opt.Settings)
 	rem := func(m int64) float64 {
-		r := farRayTail(env, whole.at(hi+m+1), 1, h)
-		l := farRayTail(env, whole.at(lo-m-1), -1, h)
+		r := env.RayTail(whole.at(hi+m+1), 1, h)
+		l := env.RayTail(whole.at(lo-m-1), -1, h)
 		return mulUp(h, addUp(r, l))
 	}
-	if !summable(env) {
+	if !summable(env, 1) {
 		return 0, invalidf("family", "%v: spatial envelope is not summable; the truncation error is unbounded", fb.f)
 	}
 	var m int64
@@ -504,7 +495,7 @@ func (fb *familyBudgeter) absTruncation() (float64, error) {
 	r := math.Inf(1)
 	x0 := whole.at(hi + 1)
 	x1 := whole.at(lo - 1)
-	if est := h * (envRay(env, x0.Lo, 1, h) + envRay(env, x1.Hi, -1, h)); est <= 2*fb.opt.Tol || est == 0 {
+	if est := h * (env.RayEstimate(x0.Lo, 1, h) + env.RayEstimate(x1.Hi, -1, h)); est <= 2*fb.opt.Tol || est == 0 {
 		r = rem(0)
 	}
 	pieces := 1
@@ -529,8 +520,7 @@ func (fb *familyBudgeter) absTruncation() (float64, error) {
 		}
 		pieces = truncPieces
 		for i := 0; i < pieces; i++ {
-			sp := whole
-			sp.shift = subinterval(fb.shifts, i, pieces)
+			sp := newSummer(fb.ctx, fb.f, g, Point(0), subinterval(fb.shifts, i, pieces), true, fb.opt.Settings)
 			if err := whole.spend(2*m, "truncation sum"); err != nil {
 				return 0, err
 			}
@@ -617,96 +607,4 @@ func (fb *familyBudgeter) overBand(band Interval) (Budget, error) {
 		b.Pieces *= shiftPieces
 	}
 	return b, nil
-}
-
-// rayFromFast returns EnvelopeTerm.rayFrom, or, for a Gaussian term whose
-// consecutive-term ratio ρ = exp(-(2x0h + h²)/(2σ²)) is below e⁻², only the
-// first of its two bounds, g(x0)/(1-ρ): each of the two is a valid bound,
-// and with ρ < e⁻² the first is within 16% of g(x0), itself a lower bound
-// of the second, so the integral bound (an erfc) is not worth computing.
-func rayFromFast(t EnvelopeTerm, x0, h float64) float64 {
-	if t.Decay != Gaussian || t.Amplitude == 0 {
-		return t.rayFrom(x0, h)
-	}
-	X := Point(x0)
-	H := Point(h)
-	s := Point(t.Width)
-	expo := X.Scale(2).Mul(H).Add(H.Sqr()).Div(s.Sqr().Scale(2))
-	if expo.Lo <= 2 {
-		return t.rayFrom(x0, h)
-	}
-	g0 := Exp(X.Div(s).Sqr().Scale(-0.5))
-	oneMinusRho := Expm1(expo.Neg()).Neg()
-	return mulUp(t.Amplitude, g0.Div(oneMinusRho).Hi)
-}
-
-// summable reports whether every term of e has a summable 1-D ray sum.
-func summable(e Envelope) bool {
-	for _, t := range e {
-		if t.Decay == Algebraic && t.Power <= 1 {
-			return false
-		}
-	}
-	return true
-}
-
-// leanSpectralAlias computes what aliasSummer.spectralAlias computes — the
-// copies l = ±1, …, ±L of F with their phases (or their moduli in abs
-// mode), inflated by the spectral envelope's bound on the rest — with the
-// same stopping rule. It is faster: it bounds the rest in interval
-// arithmetic (with farRayTail) only once a float64 estimate of it says
-// the rule will be met, instead of after every copy.
-func (s *aliasSummer) leanSpectralAlias(P Interval, F Complex) (Complex, error) {
-	spec := s.f.Spectral()
-	tailAt := func(L int64) float64 {
-		next := P.Scale(float64(L + 1))
-		return addUp(farRayTail(spec, s.xi.Add(next), 1, P.Lo), farRayTail(spec, s.xi.Sub(next), -1, P.Lo))
-	}
-	if !summable(spec) {
-		return Complex{}, invalidf("family", "%v: spectral envelope is not summable; the spectral side cannot be used", s.f)
-	}
-	// The rest beyond L = 0 is bounded in interval arithmetic only when a
-	// float64 estimate says that it may end the sum.
-	tail := math.Inf(1)
-	if est := envRay(spec, s.xi.Lo+P.Lo, 1, P.Lo) + envRay(spec, s.xi.Hi-P.Lo, -1, P.Lo); est <= 2*s.set.Tol || est == 0 {
-		tail = tailAt(0)
-	}
-	u := s.shift.Div(Point(s.g.Step))
-	u = u.AddFloat(-math.Round(u.Mid()))
-	theta := TwoPi.Mul(u)
-	zeroShift := u.Lo == 0 && u.Hi == 0
-	scale := 0x1p-60 * F.Mag()
-	var sum Complex
-	var L int64
-	for tail > s.goal(math.Max(sum.Mag(), scale)) || (L == 0 && tail > s.set.Tol && tail > 0) {
-		stop := 2*L + 8
-		for {
-			L++
-			if err := s.spend(2, "spectral alias sum"); err != nil {
-				return Complex{}, err
-			}
-			lp := P.Scale(float64(L))
-			right := s.f.Transform(s.xi.Add(lp))
-			left := s.f.Transform(s.xi.Sub(lp))
-			switch {
-			case s.abs:
-				sum = sum.Add(RealC(right.Abs().Add(left.Abs())))
-			case zeroShift:
-				sum = sum.Add(right).Add(left)
-			default:
-				ph := Cis(theta.Scale(float64(L)))
-				sum = sum.Add(right.Mul(ph)).Add(left.Mul(ph.Conj()))
-			}
-			if L >= stop {
-				break
-			}
-			next := float64(L+1) * P.Lo
-			est := envRay(spec, s.xi.Lo+next, 1, P.Lo) + envRay(spec, s.xi.Hi-next, -1, P.Lo)
-			if est <= 0.5*s.goal(math.Max(sum.Mag(), scale)) {
-				break
-			}
-		}
-		tail = tailAt(L)
-	}
-	return sum.Inflate(tail), nil
 }
