@@ -346,7 +346,7 @@ func FamilyBudget(ctx context.Context, f Family, g Grid, band Band, opt BudgetOp
 		return Budget{}, fmt.Errorf("bounds: family budget: %w", err)
 	}
 	shifts := shiftRange(g, opt.AnyShift)
-	fb := familyBudgeter{ctx: ctx, f: f, g: g, shifts: shifts, opt: opt}
+	fb := familyBudgeter{ctx: ctx, f: f, g: g, shifts: shifts, opt: opt, spat: f.Spatial(), spec: f.Spectral()}
 	var b Budget
 	var err error
 	if band.HalfWidth == 0 {
@@ -364,12 +364,12 @@ func FamilyBudget(ctx context.Context, f Family, g Grid, band Band, opt BudgetOp
 	// dominated: keep the smaller of each pair. (At a single frequency
 	// nothing stops early, and the envelope bounds are not computed.)
 	if band.HalfWidth > 0 {
-		if eb, err := EnvelopeBudget(ctx, f.Spatial(), f.Spectral(), g, band, opt); err == nil {
+		if eb, err := EnvelopeBudget(ctx, fb.spat, fb.spec, g, band, opt); err == nil {
 			b.Aliasing = math.Min(b.Aliasing, eb.Aliasing)
 			b.Truncation = math.Min(b.Truncation, eb.Truncation)
 		}
 	}
-	S := windowSum(f.Spatial(), g, shifts)
+	S := windowSum(fb.spat, g, shifts)
 	b.Rounding = roundingBound(g.Count, opt.sampleUlps(), band.Interval().Mag(), maxAbsX(g, shifts), S)
 	b.total()
 	if !finite(b.Total) {
@@ -390,6 +390,15 @@ type familyBudgeter struct {
 	truncDone   bool
 	trunc       float64
 	truncPieces int
+	// The family's envelopes, fetched once.
+	spat, spec Envelope
+}
+
+// summer returns a summer for the family with its cached envelopes
+// (newSummer fetches them anew).
+func (fb *familyBudgeter) summer(g Grid, xi, shift Interval, abs bool, set Settings) *aliasSummer {
+	return &aliasSummer{ctx: fb.ctx, f: fb.f, g: g, xi: xi, shift: shift, abs: abs, set: set,
+		spec: fb.spec, spat: fb.spat}
 }
 
 // at bounds the aliasing and truncation for every frequency in xi (a
@@ -397,7 +406,7 @@ type familyBudgeter struct {
 func (fb *familyBudgeter) at(xi Interval) (Budget, error) {
 	anyShift := fb.opt.AnyShift
 	wide := xi.Lo != xi.Hi
-	s := newSummer(fb.ctx, fb.f, fb.g, xi, fb.shifts, anyShift, fb.opt.Settings)
+	s := fb.summer(fb.g, xi, fb.shifts, anyShift, fb.opt.Settings)
 	F := fb.f.Transform(xi)
 	P := TwoPi.Div(Point(fb.g.Step))
 	side := fb.opt.Side
@@ -427,7 +436,7 @@ func (fb *familyBudgeter) at(xi Interval) (Budget, error) {
 			pieces = shiftPieces
 		}
 		for i := 0; i < pieces; i++ {
-			sp := newSummer(fb.ctx, fb.f, Grid{Step: fb.g.Step}, xi, subinterval(fb.shifts, i, pieces), false, fb.opt.Settings)
+			sp := fb.summer(Grid{Step: fb.g.Step}, xi, subinterval(fb.shifts, i, pieces), false, fb.opt.Settings)
 			T, _, err := sp.spatialInfinite(F.Mag())
 			if err != nil {
 				return Budget{}, err
@@ -445,7 +454,7 @@ func (fb *familyBudgeter) at(xi Interval) (Budget, error) {
 			b.Truncation = t
 			fb.pieces = fb.truncPieces
 		} else {
-			st := newSummer(fb.ctx, fb.f, fb.g, xi, fb.shifts, false, fb.opt.Settings)
+			st := fb.summer(fb.g, xi, fb.shifts, false, fb.opt.Settings)
 			trunc, _, _, err := st.omittedSum(F.Mag())
 			if err != nil {
 				return Budget{}, err
@@ -478,9 +487,10 @@ func (fb *familyBudgeter) absTruncation() (float64, error) {
 	g := fb.g
 	h := g.Step
 	lo, hi := g.Indices()
-	env := fb.f.Spatial()
-	whole := newSummer(fb.ctx, fb.f, g, Point(0), fb.shifts, true, fb.opt.Settings)
-	mid := newSummer(fb.ctx, fb.f, g, Point(0), Point(fb.shifts.Mid()), true, fb.opt.Settings)
+	env := fb.spat
+	whole := fb.summer(g, Point(0), fb.shifts, true, fb.opt.Settings)
+	mid := *whole
+	mid.shift = Point(fb.shifts.Mid())
 	rem := func(m int64) float64 {
 		r := env.RayTail(whole.at(hi+m+1), 1, h)
 		l := env.RayTail(whole.at(lo-m-1), -1, h)
@@ -510,7 +520,7 @@ func (fb *familyBudgeter) absTruncation() (float64, error) {
 				return 0, err
 			}
 			for k := m + 1; k <= next; k++ {
-				est = addDown(est, addDown(mid.term(hi+k).Re.Lo, mid.term(lo-k).Re.Lo))
+				est = addDown(est, addDown(mid.absTerm(hi+k).Lo, mid.absTerm(lo-k).Lo))
 			}
 			m = next
 			r = rem(m)
@@ -519,14 +529,15 @@ func (fb *familyBudgeter) absTruncation() (float64, error) {
 			}
 		}
 		pieces = truncPieces
+		sp := *whole
 		for i := 0; i < pieces; i++ {
-			sp := newSummer(fb.ctx, fb.f, g, Point(0), subinterval(fb.shifts, i, pieces), true, fb.opt.Settings)
+			sp.shift = subinterval(fb.shifts, i, pieces)
 			if err := whole.spend(2*m, "truncation sum"); err != nil {
 				return 0, err
 			}
 			var sum Interval
 			for k := int64(1); k <= m; k++ {
-				sum = sum.Add(sp.term(hi + k).Re).Add(sp.term(lo - k).Re)
+				sum = sum.Add(sp.absTerm(hi + k)).Add(sp.absTerm(lo - k))
 			}
 			best = math.Max(best, sum.Hi)
 		}
@@ -535,6 +546,19 @@ func (fb *familyBudgeter) absTruncation() (float64, error) {
 	fb.truncPieces = pieces
 	fb.truncDone = true
 	return fb.trunc, nil
+}
+
+// absTerm encloses h·|f(x_k)|, the term of an abs-mode sum, taking the
+// modulus of the real part alone when the value is real.
+func (s *aliasSummer) absTerm(k int64) Interval {
+	v := s.f.Value(s.at(k))
+	var a Interval
+	if v.Im.Lo == 0 && v.Im.Hi == 0 {
+		a = v.Re.Abs()
+	} else {
+		a = v.Abs()
+	}
+	return a.Scale(s.g.Step)
 }
 
 // overBand takes the sups of aliasing and truncation over the band by

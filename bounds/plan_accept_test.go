@@ -77,9 +77,9 @@ func TestPlanNearBruteForce(t *testing.T) {
 			name := fmt.Sprintf("%s/tol=%g", c.name, tol)
 			const shifts = 17
 			budget := func(h float64) func(int) (float64, bool) { return refCertifiedAt(c.ref, h, shifts, tol) }
-			nCert, hCert := bruteMin(bruteSteps(c.ref, tol, 1.001, 1500), tol, 1<<16, budget)
+			nCert, hCert := bruteMin(bruteSteps(c.ref, tol, 1.001, 700), tol, 1<<16, budget)
 			if nCert < math.MaxInt {
-				if n2, h2 := bruteMin(refine(hCert, 800), tol, nCert, budget); n2 < nCert {
+				if n2, h2 := bruteMin(refine(hCert, 400), tol, nCert, budget); n2 < nCert {
 					nCert, hCert = n2, h2
 				}
 			}
@@ -113,9 +113,9 @@ func TestPlanNearBruteForce(t *testing.T) {
 			}
 			// The price of certification.
 			actual := func(h float64) func(int) (float64, bool) { return refActualAt(c.ref, h, shifts) }
-			nTrue, hTrue := bruteMin(bruteSteps(c.ref, tol, 1.5, 1500), tol, nCert, actual)
+			nTrue, hTrue := bruteMin(bruteSteps(c.ref, tol, 1.5, 700), tol, nCert, actual)
 			if nTrue < math.MaxInt {
-				if n2, _ := bruteMin(refine(hTrue, 400), tol, nTrue, actual); n2 < nTrue {
+				if n2, _ := bruteMin(refine(hTrue, 300), tol, nTrue, actual); n2 < nTrue {
 					nTrue = n2
 				}
 			} else {

@@ -17,7 +17,8 @@ import (
 // for envelopes it sums the envelopes. Remainders of the infinite sums use
 // the closed forms of EnvelopeTerm.rayFrom in float64.
 type planModel struct {
-	val      func(x float64) complex128  // f, nil for envelope plans
+	val      func(x float64) float64     // |f|, nil for envelope plans
+	absTr    func(xi float64) float64    // |F|, nil for envelope plans
 	tr       func(xi float64) complex128 // F, nil for envelope plans
 	spatial  Envelope
 	spectral Envelope
@@ -37,20 +38,23 @@ type planModel struct {
 // the envelope remainder as it is.
 const modelTerms = 64
 
-// pointEvaluators returns plain float64 evaluators of f and F. Families
-// with a closed form known here get a direct formula; the others are
-// evaluated through their interval methods at a point.
-func pointEvaluators(f Family) (val, tr func(float64) complex128) {
+// pointEvaluators returns plain float64 evaluators of |f|, |F| and F.
+// Families with a closed form known here get a direct formula; the others
+// are evaluated through their interval methods at a point.
+func pointEvaluators(f Family) (absVal, absTr func(float64) float64, tr func(float64) complex128) {
 	switch g := f.(type) {
 	case GaussianFamily:
 		s := g.Sigma
 		inv := 1 / (2 * s * s)
 		amp := s * math.Sqrt(2*math.Pi)
-		return func(x float64) complex128 { return complex(math.Exp(-x*x*inv), 0) },
-			func(xi float64) complex128 { return complex(amp*math.Exp(-0.5*s*s*xi*xi), 0) }
+		ss := 0.5 * s * s
+		absTr = func(xi float64) float64 { return amp * math.Exp(-ss*xi*xi) }
+		return func(x float64) float64 { return math.Exp(-x * x * inv) }, absTr,
+			func(xi float64) complex128 { return complex(absTr(xi), 0) }
 	}
-	return func(x float64) complex128 { return f.Value(Point(x)).Mid() },
-		func(xi float64) complex128 { return f.Transform(Point(xi)).Mid() }
+	tr = func(xi float64) complex128 { return f.Transform(Point(xi)).Mid() }
+	return func(x float64) float64 { return cmplx.Abs(f.Value(Point(x)).Mid()) },
+		func(xi float64) float64 { return cmplx.Abs(tr(xi)) }, tr
 }
 
 // envelopeCenter returns the midpoint of the hull of the centres (widened
@@ -247,13 +251,13 @@ func (m *planModel) exactAlias(xi, P, h float64) float64 {
 	abs := 0.0
 	rot := complex(1, 0)
 	for l := 1; ; l++ {
-		r := m.tr(xi + float64(l)*P)
-		lf := m.tr(xi - float64(l)*P)
 		if fixed {
+			r := m.tr(xi + float64(l)*P)
+			lf := m.tr(xi - float64(l)*P)
 			rot *= ph
 			sum += r*rot + lf*cmplx.Conj(rot)
 		} else {
-			abs += cmplx.Abs(r) + cmplx.Abs(lf)
+			abs += m.absTr(xi+float64(l)*P) + m.absTr(xi-float64(l)*P)
 		}
 		next := float64(l + 1)
 		rem := envRay(m.spectral, xi+next*P, 1, P) + envRay(m.spectral, xi-next*P, -1, P)
@@ -300,7 +304,7 @@ func (m *planModel) truncAt(h float64, n int64, t float64) float64 {
 	// whole truncation is negligible).
 	sum := 0.0
 	for i := 0; ; i++ {
-		sum += h * (cmplx.Abs(m.val(xr)) + cmplx.Abs(m.val(xl)))
+		sum += h * (m.val(xr) + m.val(xl))
 		xr += h
 		xl -= h
 		rem := h * (envRay(m.spatial, xr, 1, h) + envRay(m.spatial, xl, -1, h))
