@@ -499,12 +499,11 @@ func (p *planner1) feasible(n int64) (bool, float64, float64) {
 	return false, h, v
 }
 
-// searchCount finds the least admissible count that the model deems
-// feasible. It returns the count, or 0 with the least modelled total seen
+// searchCount finds the least admissible count up to limit that the model
+// deems feasible. It returns the count, or 0 with the least modelled total seen
 // and the count where it was seen when the tolerance is out of reach.
-func (p *planner1) searchCount() (n int64, floor float64, floorAt int64, err error) {
+func (p *planner1) searchCount(limit int64) (n int64, floor float64, floorAt int64, err error) {
 	cost := p.req.Cost
-	limit := p.req.maxCount()
 	// A first guess from the aliasing-limited step and the spatial reach.
 	// A step a little below the aliasing limit, where the optimum usually
 	// lies.
@@ -638,7 +637,7 @@ func (p *planner1) compactCandidates(best int64) (int64, float64) {
 	if !(W > 0) {
 		return 0, 0
 	}
-	limit := min(best-1, 4096)
+	limit := min(best-1, compactCounts)
 	for n := int64(1); n <= limit; n++ {
 		if !p.req.Cost.Admissible(n) {
 			continue
@@ -649,13 +648,39 @@ func (p *planner1) compactCandidates(best int64) (int64, float64) {
 		}
 		for _, hh := range [...]float64{h, h * (1 + 0x1p-40), h * (1 + 0x1p-20)} {
 			p.evals++
-			if v := p.m.total(hh, n); v <= p.tol {
+			rest := p.m.trunc(hh, n) + p.m.rounding(hh, n)
+			if rest > p.tol {
+				continue
+			}
+			p.m.capped = 0
+			a := p.m.alias(hh)
+			if a+rest <= p.tol {
+				return n, hh
+			}
+			// The alias sums of such families may vanish at these steps
+			// (the B-splines' partition of unity); then only the
+			// envelope's remainder after the copies summed bounds them,
+			// and more copies may bring it within the tolerance.
+			if p.m.capped == 0 || a-p.m.capped > p.tol/2 {
+				continue
+			}
+			p.m.aliasCap = compactAliasTerms
+			a = p.m.alias(hh)
+			p.m.aliasCap = 0
+			if a+rest <= p.tol {
 				return n, hh
 			}
 		}
 	}
 	return 0, 0
 }
+
+// compactCounts is the largest count tried by compactCandidates.
+const compactCounts = 1024
+
+// compactAliasTerms caps the alias copies the model sums at the steps
+// that span a compact support exactly.
+const compactAliasTerms = 1 << 14
 
 func (p *planner1) plan() (Plan, error) {
 	limit := p.req.maxCount()
@@ -670,27 +695,46 @@ func (p *planner1) plan() (Plan, error) {
 			p.hMax = math.Max(p.hMax, 2*math.Pi/p.req.Resolution)
 		}
 	}
-	n, floor, floorAt, err := p.searchCount()
-	if err != nil {
-		return Plan{}, err
-	}
-	var h float64
-	if n > 0 {
-		if cn, ch := p.compactCandidates(n); cn > 0 {
-			n, h = cn, ch
-		} else {
-			h, _ = p.minTotal(n, p.tol*finalMargin)
+	// For compact support, the steps that span the support exactly come
+	// first: the search then only looks for fewer samples.
+	verifications := 0
+	var compact Plan
+	searchLimit := limit
+	if cn, ch := p.compactCandidates(min(limit, compactCounts) + 1); cn > 0 {
+		plan, err := p.certify(ch, cn, compactAliasTerms)
+		verifications++
+		switch {
+		case err == nil && plan.Budget.Total <= p.tol:
+			compact = plan
+			searchLimit = p.req.Cost.Prev(cn - 1)
+		case err != nil && !errors.Is(err, ErrWorkLimit):
+			return Plan{}, err
 		}
-	} else if cn, ch := p.compactCandidates(limit + 1); cn > 0 {
-		n, h = cn, ch
-	} else {
+	}
+	var n, floorAt int64
+	floor := math.Inf(1)
+	if searchLimit >= 1 {
+		var err error
+		n, floor, floorAt, err = p.searchCount(searchLimit)
+		if err != nil {
+			return Plan{}, err
+		}
+	}
+	if n == 0 && compact.Grid.Count > 0 {
+		compact.Verifications = verifications
+		return compact, nil
+	}
+	if n == 0 {
 		return Plan{}, p.infeasible(floor, floorAt)
 	}
+	h, _ := p.minTotal(n, p.tol*finalMargin)
 	// Certify; on failure try the next admissible counts.
 	var last Budget
-	verifications := 0
 	for try := 0; try < 4; try++ {
-		plan, err := p.certify(h, n)
+		if compact.Grid.Count > 0 && n >= compact.Grid.Count {
+			break
+		}
+		plan, err := p.certify(h, n, 0)
 		verifications++
 		if err != nil {
 			return Plan{}, err
@@ -708,14 +752,24 @@ func (p *planner1) plan() (Plan, error) {
 		p.hint = h
 		h, _ = p.minTotal(n, p.tol*finalMargin)
 	}
+	if compact.Grid.Count > 0 {
+		compact.Verifications = verifications
+		return compact, nil
+	}
 	return Plan{}, &ParamError{Param: "tol", Err: ErrInfeasible,
 		Reason: fmt.Sprintf("the certified error of the best grid found stays above the tolerance %.3g (last certified total %.3g after %d tries); a tolerance of about %.1g is certifiable",
 			p.tol, last.Total, verifications, 2*last.Total)}
 }
 
-// certify evaluates the budget of the grid in interval arithmetic.
-func (p *planner1) certify(h float64, n int64) (Plan, error) {
+// certify evaluates the budget of the grid in interval arithmetic. The
+// model is evaluated first, with the alias term cap aliasCap, so that the
+// interval evaluation may leave the same remainders as the model did.
+func (p *planner1) certify(h float64, n int64, aliasCap int) (Plan, error) {
 	g := Grid{Step: h, Count: n, Shift: p.m.gridShift(h, n)}
+	p.m.capped = 0
+	p.m.aliasCap = aliasCap
+	model := p.m.total(h, n)
+	p.m.aliasCap = 0
 	remGoal := math.Max(p.tol*verifyFraction, p.m.capped)
 	opt := BudgetOptions{
 		AnyShift:   !p.req.FixedShift,
@@ -740,7 +794,7 @@ func (p *planner1) certify(h float64, n int64) (Plan, error) {
 		AnyShift: !p.req.FixedShift,
 		Cost:     p.req.Cost.Cost(float64(n)),
 		Budget:   b,
-		Model:    p.m.total(h, n),
+		Model:    model,
 	}, nil
 }
 

@@ -31,6 +31,7 @@ type planModel struct {
 	ulps     float64 // sample error in units of u
 	remGoal  float64 // remainders below this are not refined (the verification's Settings.Tol)
 	capped   float64 // largest remainder accepted only because a term limit was hit
+	aliasCap int     // term cap of the alias sums (modelTerms when 0)
 	sH, sVal float64 // the last step and its window-sum bound S
 }
 
@@ -268,7 +269,7 @@ func (m *planModel) exactAlias(xi, P, h float64) float64 {
 		if rem <= m.remGoal || rem <= 0x1p-60*cur || rem == 0 {
 			return cur + rem
 		}
-		if l >= modelTerms {
+		if l >= max(m.aliasCap, modelTerms) {
 			m.capped = math.Max(m.capped, rem)
 			return cur + rem
 		}
