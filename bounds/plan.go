@@ -274,14 +274,14 @@ func (p *planner1) stepForAlias(eps, rel float64) float64 {
 		h = 2 * math.Pi / omega
 	}
 	lo, hi := 0.0, 0.0
-	if p.m.alias(h) <= eps {
+	if p.m.weightedAlias(h) <= eps {
 		lo = h
 		for i := 0; ; i++ {
 			h *= 2
 			if i > 60 {
 				return math.Inf(1)
 			}
-			if p.m.alias(h) > eps {
+			if p.m.weightedAlias(h) > eps {
 				hi = h
 				break
 			}
@@ -294,7 +294,7 @@ func (p *planner1) stepForAlias(eps, rel float64) float64 {
 			if i > 200 {
 				return 0
 			}
-			if p.m.alias(h) <= eps {
+			if p.m.weightedAlias(h) <= eps {
 				lo = h
 				break
 			}
@@ -304,7 +304,7 @@ func (p *planner1) stepForAlias(eps, rel float64) float64 {
 	// Regula falsi with the Illinois modification on log(alias) against
 	// log h, falling back to bisection where the aliasing vanishes.
 	le := math.Log(eps)
-	g := func(h float64) float64 { return math.Log(p.m.alias(h)) - le }
+	g := func(h float64) float64 { return math.Log(p.m.weightedAlias(h)) - le }
 	glo, ghi := g(lo), g(hi)
 	side := 0
 	for hi/lo > 1+rel {
@@ -349,26 +349,32 @@ func (p *planner1) minTotal(n int64, enough float64) (float64, float64) {
 		p.evals++
 		return p.m.total(h, n)
 	}
+	const ratio = 1.02
+	if hHi <= hLo*ratio {
+		// A sliver of admissible steps: its ends decide.
+		fl, fh := f(hLo), f(hHi)
+		if fl < fh {
+			return hLo, fl
+		}
+		return hHi, fh
+	}
 	// Start from the hint, clipped into [hLo, hHi].
 	h0 := p.hint
 	if h0 <= 0 || h0 > hHi {
 		h0 = hHi
 	}
-	if h0 < hLo {
-		h0 = hLo
-	}
+	h0 = math.Max(h0, hLo)
 	f0 := f(h0)
 	if f0 <= enough {
 		return h0, f0
 	}
 	// Bracket a minimum on log h by walking downhill with growing steps.
-	ratio := 1.02
 	a, fa := h0, f0
-	b, fb := math.Min(h0*ratio, hHi), 0.0
-	if b == h0 {
+	b := h0 * ratio
+	if b > hHi {
 		b = h0 / ratio
 	}
-	fb = f(b)
+	fb := f(b)
 	if fb > fa {
 		// Walk the other way.
 		a, b = b, a
@@ -388,20 +394,36 @@ func (p *planner1) minTotal(n int64, enough float64) (float64, float64) {
 			c = math.Max(b/step, hLo)
 		}
 		if c == b {
-			// Hit the edge of the admissible steps: the minimum is there.
-			return b, fb
+			// b is an end of the admissible steps and f falls towards
+			// it: the minimum lies between a and b.
+			return p.towardEnd(f, a, b, fb, enough)
 		}
 		fc := f(c)
 		if fc >= fb {
-			h, v := p.brent(f, a, b, c, fb, enough)
-			return h, v
+			return p.brent(f, a, b, c, fb, enough)
 		}
 		a, fa = b, fb
 		b, fb = c, fc
-		step *= step
-		if step > 4 {
-			step = 4
+		step = math.Min(step*step, 4)
+	}
+	return b, fb
+}
+
+// towardEnd finds the minimum of f between an inner point a and an end b
+// of the admissible steps with f(b) ≤ f(a): it halves the gap (in log h)
+// until a point below f(b) brackets an inner minimum, or the gap closes
+// on the end.
+func (p *planner1) towardEnd(f func(float64) float64, a, b, fb, enough float64) (float64, float64) {
+	for i := 0; i < 60 && math.Abs(math.Log(b/a)) > 1e-7; i++ {
+		m := math.Sqrt(a * b)
+		fm := f(m)
+		if fm <= enough {
+			return m, fm
 		}
+		if fm < fb {
+			return p.brent(f, a, m, b, fm, enough)
+		}
+		a = m
 	}
 	return b, fb
 }
@@ -622,19 +644,8 @@ func (p *planner1) searchCount(limit int64) (n int64, floor float64, floorAt int
 // omitted for any shift). It returns the least feasible count and its
 // step, or 0.
 func (p *planner1) compactCandidates(best int64) (int64, float64) {
-	if p.m.val == nil {
-		return 0, 0
-	}
-	lo, hi := math.Inf(1), math.Inf(-1)
-	for _, t := range p.m.spatial {
-		if t.Decay != Compact {
-			return 0, 0
-		}
-		lo = math.Min(lo, t.Center-t.Plateau-t.Width)
-		hi = math.Max(hi, t.Center+t.Plateau+t.Width)
-	}
-	W := 2 * math.Max(hi-p.m.center, p.m.center-lo)
-	if !(W > 0) {
+	W := p.compactWidth()
+	if W == 0 {
 		return 0, 0
 	}
 	limit := min(best-1, compactCounts)
@@ -648,12 +659,15 @@ func (p *planner1) compactCandidates(best int64) (int64, float64) {
 		}
 		for _, hh := range [...]float64{h, h * (1 + 0x1p-40), h * (1 + 0x1p-20)} {
 			p.evals++
-			rest := p.m.trunc(hh, n) + p.m.rounding(hh, n)
+			rest := p.m.trunc(hh, n) * weight(p.m.wT)
+			if !p.m.noRound {
+				rest += p.m.rounding(hh, n)
+			}
 			if rest > p.tol {
 				continue
 			}
 			p.m.capped = 0
-			a := p.m.alias(hh)
+			a := p.m.weightedAlias(hh)
 			if a+rest <= p.tol {
 				return n, hh
 			}
@@ -661,11 +675,11 @@ func (p *planner1) compactCandidates(best int64) (int64, float64) {
 			// (the B-splines' partition of unity); then only the
 			// envelope's remainder after the copies summed bounds them,
 			// and more copies may bring it within the tolerance.
-			if p.m.capped == 0 || a-p.m.capped > p.tol/2 {
+			if p.m.capped == 0 || a-p.m.capped*weight(p.m.wA) > p.tol/2 {
 				continue
 			}
 			p.m.aliasCap = compactAliasTerms
-			a = p.m.alias(hh)
+			a = p.m.weightedAlias(hh)
 			p.m.aliasCap = 0
 			if a+rest <= p.tol {
 				return n, hh
@@ -673,6 +687,28 @@ func (p *planner1) compactCandidates(best int64) (int64, float64) {
 		}
 	}
 	return 0, 0
+}
+
+// compactWidth returns the width W of the smallest window centred on the
+// centre that holds a family's compact support, or 0 if the family is not
+// known to have compact support.
+func (p *planner1) compactWidth() float64 {
+	if p.m.val == nil {
+		return 0
+	}
+	lo, hi := math.Inf(1), math.Inf(-1)
+	for _, t := range p.m.spatial {
+		if t.Decay != Compact {
+			return 0
+		}
+		lo = math.Min(lo, t.Center-t.Plateau-t.Width)
+		hi = math.Max(hi, t.Center+t.Plateau+t.Width)
+	}
+	W := 2 * math.Max(hi-p.m.center, p.m.center-lo)
+	if !(W > 0) || !finite(W) {
+		return 0
+	}
+	return W
 }
 
 // compactCounts is the largest count tried by compactCandidates.

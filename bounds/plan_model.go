@@ -33,6 +33,12 @@ type planModel struct {
 	capped   float64 // largest remainder accepted only because a term limit was hit
 	aliasCap int     // term cap of the alias sums (modelTerms when 0)
 	sH, sVal float64 // the last step and its window-sum bound S
+	// Weights of the aliasing and the truncation in the total, and whether
+	// the rounding is left out (an axis of an n-D plan: PlanGridND weighs
+	// each axis's errors by the other axes' sizes and adds the rounding of
+	// the whole grid itself). Zero weights mean 1.
+	wA, wT  float64
+	noRound bool
 }
 
 // modelTerms caps the explicit terms one model sum may add before it takes
@@ -52,10 +58,69 @@ func pointEvaluators(f Family) (absVal, absTr func(float64) float64, tr func(flo
 		absTr = func(xi float64) float64 { return amp * math.Exp(-ss*xi*xi) }
 		return func(x float64) float64 { return math.Exp(-x * x * inv) }, absTr,
 			func(xi float64) complex128 { return complex(absTr(xi), 0) }
+	case BSplineFamily:
+		m := g.Order
+		if m >= 1 && m <= MaxBSplineOrder {
+			absTr = func(xi float64) float64 {
+				u := xi / 2
+				if u == 0 {
+					return 1
+				}
+				return math.Abs(intPowFloat(math.Sin(u)/u, m))
+			}
+			return func(x float64) float64 { return bsplineFloat(m, x) }, absTr,
+				func(xi float64) complex128 {
+					u := xi / 2
+					if u == 0 {
+						return 1
+					}
+					return complex(intPowFloat(math.Sin(u)/u, m), 0)
+				}
+		}
 	}
 	tr = func(xi float64) complex128 { return f.Transform(Point(xi)).Mid() }
 	return func(x float64) float64 { return cmplx.Abs(f.Value(Point(x)).Mid()) },
 		func(xi float64) float64 { return cmplx.Abs(tr(xi)) }, tr
+}
+
+// intPowFloat returns v^n for n ≥ 0 by repeated multiplication.
+func intPowFloat(v float64, n int) float64 {
+	r := 1.0
+	for ; n > 0; n-- {
+		r *= v
+	}
+	return r
+}
+
+// bsplineFloat returns the centred cardinal B-spline of order m at x by
+// the truncated-power formula at -|x| (see BSplineFamily).
+func bsplineFloat(m int, x float64) float64 {
+	half := float64(m) / 2
+	y := -math.Abs(x)
+	if -y > half {
+		return 0
+	}
+	if m == 1 {
+		if -y == half {
+			return 0.5
+		}
+		return 1
+	}
+	sum := 0.0
+	c := 1.0
+	for j := 0; j <= m; j++ {
+		t := y + half - float64(j)
+		if t <= 0 {
+			break
+		}
+		sum += c * intPowFloat(t, m-1)
+		c = -c * float64(m-j) / float64(j+1)
+	}
+	fact := 1.0
+	for k := 2; k < m; k++ {
+		fact *= float64(k)
+	}
+	return math.Max(sum/fact, 0)
 }
 
 // envelopeCenter returns the midpoint of the hull of the centres (widened
@@ -375,5 +440,19 @@ func (m *planModel) gridShift(h float64, n int64) float64 {
 
 // total returns the model of the whole budget.
 func (m *planModel) total(h float64, n int64) float64 {
-	return m.alias(h) + m.trunc(h, n) + m.rounding(h, n)
+	v := m.weightedAlias(h) + m.trunc(h, n)*weight(m.wT)
+	if !m.noRound {
+		v += m.rounding(h, n)
+	}
+	return v
+}
+
+// weightedAlias returns the aliasing model times its weight.
+func (m *planModel) weightedAlias(h float64) float64 { return m.alias(h) * weight(m.wA) }
+
+func weight(w float64) float64 {
+	if w == 0 {
+		return 1
+	}
+	return w
 }
