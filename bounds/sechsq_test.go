@@ -1,6 +1,9 @@
 package bounds
 
 import (
+	"math/big"
+
+	"foldbound/internal/bigref"
 	"math"
 	"testing"
 )
@@ -32,4 +35,42 @@ func TestSechSquaredTransformQuadrature(t *testing.T) {
 		})
 	}
 	checkTransforms(t, tests)
+}
+
+// bigSechSquared is the math/big reference of sech²(x/w) and of
+// πw²ξ/sinh(πwξ/2) (2w at ξ = 0).
+func bigSechSquared(w float64) bigFamily {
+	bw := bigref.New(w)
+	return bigFamily{
+		samples: func(h, s float64, lo, hi int64) []bigref.Complex {
+			es := geometricSamples(bigref.Quo(bigref.Int(1), bw), h, s, lo, hi)
+			out := make([]bigref.Complex, len(es))
+			for i, e := range es {
+				c := bigref.Quo(bigref.Mul(bigref.Int(2), e), bigref.Add(bigref.Int(1), bigref.Mul(e, e)))
+				out[i] = bigref.Real(bigref.Mul(c, c))
+			}
+			return out
+		},
+		tail: expTail(4, 0, 2/w), // sech² u ≤ 4e^{-2|u|}
+		// 2w·v/sinh v ≤ 2w(2v+1)e^{-v} ≤ 4w·e^{-v/2}, v = πw|ξ|/2, since
+		// 2e^{v/2} - 2v - 1 is least at v = 2 ln 2, where it is 3 - 4 ln 2 > 0.
+		specBound:   func(d float64) float64 { return 4 * w * math.Exp(-math.Pi*w*d/4) },
+		nonNegative: true,
+		transform: func(xi *big.Float) bigref.Complex {
+			if xi.Sign() == 0 {
+				return bigref.Real(bigref.Mul(bigref.Int(2), bw))
+			}
+			pw := bigref.Mul(bigref.Pi(), bw)
+			num := bigref.Mul(bigref.Mul(pw, bw), xi)
+			return bigref.Real(bigref.Quo(num, bigref.Sinh(bigref.Quo(bigref.Mul(pw, xi), bigref.Int(2)))))
+		},
+	}
+}
+
+// Containment: math/big direct spatial sums lie in AliasSum's enclosures.
+func TestSechSquaredContainment(t *testing.T) {
+	for _, w := range []float64{1, 2.5} {
+		fam, _ := NewSechSquared(w)
+		checkContainment(t, fam, bigSechSquared(w), standardCases(w))
+	}
 }
