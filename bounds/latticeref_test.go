@@ -232,14 +232,27 @@ func spectralSide(t *testing.T, ref bigFamily, h, s, xi float64) bigSum {
 			}
 		}
 	}
-	L := int64(math.Ceil((math.Abs(xi) + ref.specR) / P))
-	for ; ; L++ {
-		T, A := spectralSum(ref.transform, h, s, xi, L)
-		mag := bigref.Float64(T.Abs())
-		amag := bigref.Float64(A.Abs())
+	bP := bigref.Quo(bigref.Mul(bigref.Pi(), bigref.Int(2)), bigref.New(h))
+	bxi := bigref.New(xi)
+	// e^{ilθ}, θ = 2πs/h, by the recurrence e^{i(l+1)θ} = e^{ilθ}·e^{iθ}.
+	step := bigref.Cis(bigref.Mul(bP, bigref.New(s)))
+	ph := bigref.C(1, 0)
+	F0 := ref.transform(bxi)
+	alias := bigref.C(0, 0)
+	for L := int64(1); ; L++ {
+		ph = ph.Mul(step)
+		lp := bigref.Mul(bP, bigref.Int(L))
+		right := ref.transform(bigref.Add(bxi, lp)).Mul(ph)
+		left := ref.transform(bigref.Sub(bxi, lp)).Mul(bigref.Complex{Re: ph.Re, Im: bigref.Neg(ph.Im)})
+		alias = alias.Add(right).Add(left)
+		if float64(L)*P < math.Abs(xi)+ref.specR {
+			continue
+		}
+		T := alias.Add(F0)
+		mag, amag := absf(T), absf(alias)
 		if tl := tailFrom(L); tl <= 1e-100*mag || tl == 0 || (tl < 1e-300 && L > 4) {
 			return bigSum{T: T, err: tl + roundingErr(2*L+1, mag), side: "spectral",
-				alias: &A, aliasErr: tl + roundingErr(2*L+1, amag)}
+				alias: &alias, aliasErr: tl + roundingErr(2*L+1, amag)}
 		}
 		if L > 1<<16 {
 			t.Fatalf("spectral reference needs more than %d copies", L)
@@ -466,21 +479,4 @@ func pointSamples(f func(x *big.Float) bigref.Complex) func(h, s float64, lo, hi
 		}
 		return out
 	}
-}
-
-// spectralSum returns the Poisson side Σ_{l=-L}^{L} F(ξ + 2πl/h)e^{i2πls/h}
-// in math/big, for families whose infinite-grid reference is summed there;
-// L is the caller's, chosen so that the omitted copies are negligible.
-func spectralSum(F func(xi *big.Float) bigref.Complex, h, s, xi float64, L int64) (total, alias bigref.Complex) {
-	P := bigref.Quo(bigref.Mul(bigref.Pi(), bigref.Int(2)), bigref.New(h))
-	theta := bigref.Mul(P, bigref.New(s)) // 2πs/h
-	sum := bigref.C(0, 0)
-	for l := int64(1); l <= L; l++ {
-		lp := bigref.Mul(P, bigref.Int(l))
-		ph := bigref.Cis(bigref.Mul(theta, bigref.Int(l)))
-		right := F(bigref.Add(bigref.New(xi), lp)).Mul(ph)
-		left := F(bigref.Sub(bigref.New(xi), lp)).Mul(bigref.Complex{Re: ph.Re, Im: bigref.Neg(ph.Im)})
-		sum = sum.Add(right).Add(left)
-	}
-	return sum.Add(F(bigref.New(xi))), sum
 }
