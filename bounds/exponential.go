@@ -52,13 +52,14 @@ func (e ExponentialFamily) Spatial() Envelope {
 	return Envelope{{Decay: Exponential, Amplitude: 1, Rate: e.Rate}}
 }
 
-// Spectral is an algebraic term of power 2:
+// Spectral is an algebraic term of power 2 with a plateau:
 //
-//	2a/(a²+ξ²) ≤ (4/a)·(1 + |ξ|/a)^{-2}   since (a+|ξ|)² ≤ 2(a²+ξ²).
+//	2a/(a²+ξ²) ≤ (2/a)·min(1, a²/ξ²) = (2/a)·(1 + max(0, |ξ| - a)/a)^{-2},
 //
-// The ratio envelope/F is 2(1+t²)/(1+t)², t = |ξ|/a: 2 at 0 and at
-// infinity, 1 at |ξ| = a; no other width ℓ = λa has a smaller largest
-// ratio (it is max(1+λ², 1+1/λ²)).
+// amplitude 2/a (rounded up), plateau a, width a. The ratio envelope/F is
+// 1 at 0 and at infinity and at most 2 (at |ξ| = a). (The plateau-free
+// (4/a)(1 + |ξ|/a)^{-2}, from (a+|ξ|)² ≤ 2(a²+ξ²), is 2 at both ends.)
 func (e ExponentialFamily) Spectral() Envelope {
-	return Envelope{{Decay: Algebraic, Amplitude: divUp(4, e.Rate), Width: e.Rate, Power: 2}}
+	a := e.Rate
+	return Envelope{{Decay: Algebraic, Amplitude: divUp(2, a), Plateau: a, Width: a, Power: 2}}
 }

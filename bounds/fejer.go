@@ -49,14 +49,17 @@ func (f FejerFamily) Transform(xi Interval) Complex {
 	return RealC(t.Mul(TwoPi.Div(om)))
 }
 
-// Spatial bounds f by an algebraic term of power 2:
+// Spatial bounds f by an algebraic term of power 2 with a plateau:
 //
-//	sinc²(u) ≤ min(1, u⁻²) ≤ 4·(1 + |u|)^{-2},  u = Ωx/2,
+//	sinc²(u) ≤ min(1, u⁻²) = (1 + max(0, |u| - 1))^{-2},  u = Ωx/2,
 //
-// since (1+|u|)² ≤ 4 for |u| ≤ 1 and (1+|u|)²/u² ≤ 4 for |u| ≥ 1: amplitude
-// 4, width 2/Ω (rounded up).
+// amplitude 1, plateau and width 2/Ω (both rounded up). The envelope
+// touches f at 0 and near the crests of the side lobes, |u| ≈ (k+½)π.
+// (The plateau-free 4(1+|u|)^{-2} ≥ min(1, u⁻²) is 4 times f at 0 and at
+// the far crests.)
 func (f FejerFamily) Spatial() Envelope {
-	return Envelope{{Decay: Algebraic, Amplitude: 4, Width: divUp(2, f.Omega), Power: 2}}
+	w := divUp(2, f.Omega)
+	return Envelope{{Decay: Algebraic, Amplitude: 1, Plateau: w, Width: w, Power: 2}}
 }
 
 // Spectral is the band limit: F ≤ 2π/Ω (rounded up) on |ξ| ≤ Ω, 0 beyond.

@@ -47,14 +47,17 @@ func (l LorentzianFamily) Transform(xi Interval) Complex {
 	return RealC(Exp(xi.Abs().Scale(-a)).Mul(Pi.Div(Point(a))))
 }
 
-// Spatial is an algebraic term of power 2:
+// Spatial is an algebraic term of power 2 with a plateau:
 //
-//	1/(a²+x²) ≤ (2/a²)·(1 + |x|/a)^{-2}   since (a+|x|)² ≤ 2(a²+x²),
+//	1/(a²+x²) ≤ min(1/a², 1/x²) = (1/a²)·(1 + max(0, |x| - a)/a)^{-2},
 //
-// with ratio envelope/f between 1 (at |x| = a) and 2 (at 0 and infinity).
+// amplitude 1/a² (rounded up), plateau a, width a. The ratio envelope/f
+// is 1 at 0 and at infinity and at most 2 (at |x| = a). (The plateau-free
+// (2/a²)(1 + |x|/a)^{-2}, from (a+|x|)² ≤ 2(a²+x²), is 2 at both ends, and
+// the far tail decides how many samples the engine sums.)
 func (l LorentzianFamily) Spatial() Envelope {
 	a := l.Width
-	return Envelope{{Decay: Algebraic, Amplitude: divUp(2, mulDown(a, a)), Width: a, Power: 2}}
+	return Envelope{{Decay: Algebraic, Amplitude: Point(a).Sqr().Recip().Hi, Plateau: a, Width: a, Power: 2}}
 }
 
 // Spectral is F itself: an exponential term of amplitude π/a (rounded up)
