@@ -41,7 +41,7 @@ func bigExponential(a float64) bigFamily {
 	ba := bigref.New(a)
 	return bigFamily{
 		samples: func(h, s float64, lo, hi int64) []bigref.Complex {
-			return realSamples(geometricSamples(ba, h, s, lo, hi))
+			return realSamples(geometricSamples(ba, nil, h, s, lo, hi))
 		},
 		// h·Σ_{k>hi} e^{-a x_k} = h·e^{-a x_{hi+1}}/(1 - e^{-ah}), both sides.
 		tail: func(h, s float64, lo, hi int64) float64 {

@@ -43,7 +43,7 @@ func bigSechSquared(w float64) bigFamily {
 	bw := bigref.New(w)
 	return bigFamily{
 		samples: func(h, s float64, lo, hi int64) []bigref.Complex {
-			es := geometricSamples(bigref.Quo(bigref.Int(1), bw), h, s, lo, hi)
+			es := geometricSamples(bigref.Quo(bigref.Int(1), bw), nil, h, s, lo, hi)
 			out := make([]bigref.Complex, len(es))
 			for i, e := range es {
 				c := bigref.Quo(bigref.Mul(bigref.Int(2), e), bigref.Add(bigref.Int(1), bigref.Mul(e, e)))
