@@ -418,3 +418,38 @@ func TestDilateEnvelopeRounding(t *testing.T) {
 		}
 	}
 }
+
+// Value and Transform of composed families enclose f and F over wide
+// intervals, as for the closed forms (math/big values at points inside;
+// never NaN).
+func TestComposeWideIntervals(t *testing.T) {
+	for _, c := range composedRefs() {
+		for i, iv := range []Interval{
+			{-0.3, 0.2}, {-3, 5}, {1, 40}, {-100, -2}, {2.5, math.Inf(1)}, {math.Inf(-1), 0.1}, Entire(),
+		} {
+			for _, side := range []string{"Value", "Transform"} {
+				var got Complex
+				val := func(v float64) bigref.Complex { return bigValue(c.ref, v) }
+				if side == "Value" {
+					got = c.fam.Value(iv)
+				} else {
+					got = c.fam.Transform(iv)
+					val = func(v float64) bigref.Complex { return c.ref.transform(bigref.New(v)) }
+				}
+				if math.IsNaN(got.Re.Lo + got.Re.Hi + got.Im.Lo + got.Im.Hi) {
+					t.Fatalf("%v: %s(%v) = %v has NaN", c.fam, side, iv, got)
+				}
+				a, b := math.Max(iv.Lo, -60), math.Min(iv.Hi, 60)
+				for j := 0; j <= 12; j++ {
+					p := a + (b-a)*float64(j)/12 + 1e-3*float64(i)
+					if p > b {
+						p = b
+					}
+					if v := val(p); !v.In(got.Re.Lo, got.Re.Hi, got.Im.Lo, got.Im.Hi) {
+						t.Errorf("%v: %s(%v) = %v, want it to contain %.17g + i%.17g at %g (math/big)", c.fam, side, iv, got, v.Re, v.Im, p)
+					}
+				}
+			}
+		}
+	}
+}

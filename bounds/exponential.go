@@ -21,7 +21,8 @@ func NewExponential(a float64) (ExponentialFamily, error) {
 	return e, e.Validate()
 }
 
-// Validate reports whether a is finite and positive.
+// Validate reports whether a is finite, positive and within the range where
+// the envelopes are finite.
 func (e ExponentialFamily) Validate() error {
 	if !finite(e.Rate) || e.Rate <= 0 {
 		return invalidf("exponential.rate", "must be finite and > 0, got %g", e.Rate)

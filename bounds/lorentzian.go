@@ -21,7 +21,8 @@ func NewLorentzian(a float64) (LorentzianFamily, error) {
 	return l, l.Validate()
 }
 
-// Validate reports whether a is finite and positive.
+// Validate reports whether a is finite, positive and within the range where
+// the envelopes are finite.
 func (l LorentzianFamily) Validate() error {
 	if !finite(l.Width) || l.Width <= 0 {
 		return invalidf("lorentzian.width", "must be finite and > 0, got %g", l.Width)
