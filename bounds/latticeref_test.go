@@ -148,9 +148,9 @@ type bigSum struct {
 // relative at 320 bits.
 func roundingErr(n int64, abs float64) float64 { return float64(n+16) * abs * 0x1p-300 }
 
-// directSum returns h Σ_{k=lo}^{hi} f(x_k)e^{-iξx_k}; tail is the bound on
+// latticeDirectSum returns h Σ_{k=lo}^{hi} f(x_k)e^{-iξx_k}; tail is the bound on
 // the samples outside lo…hi (0 for a finite grid).
-func directSum(ref bigFamily, h, s, xi float64, lo, hi int64, tail float64) bigSum {
+func latticeDirectSum(ref bigFamily, h, s, xi float64, lo, hi int64, tail float64) bigSum {
 	fs := ref.samples(h, s, lo, hi)
 	ph := phases(h, s, xi, lo, hi)
 	T := bigref.C(0, 0)
@@ -338,7 +338,7 @@ func checkContainment(t *testing.T, fam Family, ref bigFamily, cases []containCa
 		var ts bigSum
 		if !g.Infinite() || ref.tail != nil {
 			lo, hi, tail := gridWindow(t, ref, g)
-			ts = directSum(ref, g.Step, g.Shift, tc.xi, lo, hi, tail)
+			ts = latticeDirectSum(ref, g.Step, g.Shift, tc.xi, lo, hi, tail)
 		}
 		if g.Infinite() && ref.specBound != nil && (ref.tail == nil || ts.err > 1e-3*halfWidth) {
 			S := ts.absSum
