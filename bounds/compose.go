@@ -27,15 +27,106 @@ const MaxComposeNodes = 64
 
 // composite is implemented by the composition families: they validate
 // their children against a shared node budget, naming parameters by their
-// path from the root.
+// path from the root, and build their envelopes by appending to one slice
+// (the engine asks for envelopes many times per sum).
 type composite interface {
 	validateNode(prefix string, nodes *int) error
+	appendSpatial(dst Envelope) Envelope
+	appendSpectral(dst Envelope) Envelope
 }
 
-// validateRoot validates the tree rooted at f.
+// appendSpatial appends the spatial envelope of f to dst.
+func appendSpatial(dst Envelope, f Family) Envelope {
+	if c, ok := f.(composite); ok {
+		return c.appendSpatial(dst)
+	}
+	return append(dst, f.Spatial()...)
+}
+
+// appendSpectral appends the spectral envelope of f to dst.
+func appendSpectral(dst Envelope, f Family) Envelope {
+	if c, ok := f.(composite); ok {
+		return c.appendSpectral(dst)
+	}
+	return append(dst, f.Spectral()...)
+}
+
+// scaleTerms multiplies the amplitudes by k ≥ 0, rounded up (as
+// Envelope.Scaled), in place.
+func scaleTerms(e Envelope, k float64) {
+	for i := range e {
+		e[i].Amplitude = mulUp(e[i].Amplitude, k)
+	}
+}
+
+// shiftTerms moves the centres by c in place; the rounding error of a new
+// centre, exact by TwoSum, joins its plateau (as Envelope.Shifted, but an
+// exact centre leaves the plateau unchanged).
+func shiftTerms(e Envelope, c float64) {
+	for i := range e {
+		t := &e[i]
+		nc := t.Center + c
+		if err := math.Abs(twoSumErr(t.Center, c, nc)); err != 0 {
+			t.Plateau = addUp(t.Plateau, err)
+		}
+		t.Center = nc
+	}
+}
+
+// validateRoot validates the tree rooted at f: parameters and children
+// first, then the derived envelopes, once, at the root. A term that leaves
+// the float64 range below stays out of range in every ancestor (an
+// infinite amplitude or width stays infinite, a zero rate or width stays
+// zero) unless an amplitude 0 multiplies it away, which is then harmless; so
+// the nodes' own envelopes are examined only to name the first node that
+// fails.
 func validateRoot(f composite) error {
 	nodes := 1
-	return f.validateNode("", &nodes)
+	if err := f.validateNode("", &nodes); err != nil {
+		return err
+	}
+	ff := f.(Family)
+	if envelopeInRange(ff.Spatial()) && envelopeInRange(ff.Spectral()) {
+		return nil
+	}
+	return locateEnvelopeFailure(ff, "")
+}
+
+// locateEnvelopeFailure returns the error of the deepest composition node
+// below (or at) f whose derived envelopes leave the float64 range, with the
+// path of the offending term, e.g. "sum[1].amplitude.spatial[0].amplitude".
+func locateEnvelopeFailure(f Family, prefix string) error {
+	var name string
+	var children []Family
+	var locs []string
+	switch n := f.(type) {
+	case AmplitudeFamily:
+		name, children, locs = "amplitude", []Family{n.Of}, []string{"amplitude.of."}
+	case ShiftFamily:
+		name, children, locs = "shift", []Family{n.Of}, []string{"shift.of."}
+	case DilationFamily:
+		name, children, locs = "dilation", []Family{n.Of}, []string{"dilation.of."}
+	case ModulationFamily:
+		name, children, locs = "modulation", []Family{n.Of}, []string{"modulation.of."}
+	case SumFamily:
+		name, children = "sum", n.Terms
+		for i := range n.Terms {
+			locs = append(locs, fmt.Sprintf("sum[%d].", i))
+		}
+	default:
+		return nil
+	}
+	for i, c := range children {
+		if _, ok := c.(composite); !ok {
+			continue
+		}
+		if !envelopeInRange(c.Spatial()) || !envelopeInRange(c.Spectral()) {
+			if err := locateEnvelopeFailure(c, prefix+locs[i]); err != nil {
+				return err
+			}
+		}
+	}
+	return validateNodeEnvelopes(f, prefix+name)
 }
 
 // validateChild validates the family f found at path loc ("shift.of",
@@ -51,7 +142,7 @@ func validateChild(f Family, loc string, nodes *int) error {
 	if c, ok := f.(composite); ok {
 		return c.validateNode(loc+".", nodes)
 	}
-	if err := Validate(f); err != nil {
+	if err := validateLeaf(f); err != nil {
 		var pe *ParamError
 		if errors.As(err, &pe) {
 			return &ParamError{Param: loc + "." + pe.Param, Reason: pe.Reason, Err: pe.Err}
@@ -61,14 +152,33 @@ func validateChild(f Family, loc string, nodes *int) error {
 	return nil
 }
 
+// validateLeaf is Validate for a family that is not a composition, with a
+// quick envelope check first (Envelope.Validate formats a path per term).
+func validateLeaf(f Family) error {
+	if v, ok := f.(Validator); ok {
+		if err := v.Validate(); err != nil {
+			return err
+		}
+	}
+	if envelopeInRange(f.Spatial()) && envelopeInRange(f.Spectral()) {
+		return nil
+	}
+	return Validate(f)
+}
+
 // validateNodeEnvelopes checks the envelopes a node derives from its
 // children, which can leave the float64 range even when every parameter is
-// in its domain.
+// in its domain. The quick check avoids formatting paths on the common,
+// valid path.
 func validateNodeEnvelopes(f Family, path string) error {
-	if err := f.Spatial().Validate(path + ".spatial"); err != nil {
+	sp, sc := f.Spatial(), f.Spectral()
+	if envelopeInRange(sp) && envelopeInRange(sc) {
+		return nil
+	}
+	if err := sp.Validate(path + ".spatial"); err != nil {
 		return err
 	}
-	return f.Spectral().Validate(path + ".spectral")
+	return sc.Validate(path + ".spectral")
 }
 
 // AmplitudeFamily is c·f for a complex constant c = Re + i·Im:
@@ -98,7 +208,7 @@ func (a AmplitudeFamily) validateNode(prefix string, nodes *int) error {
 	if err := validateChild(a.Of, prefix+"amplitude.of", nodes); err != nil {
 		return err
 	}
-	return validateNodeEnvelopes(a, prefix+"amplitude")
+	return nil
 }
 
 func (a AmplitudeFamily) String() string {
@@ -122,10 +232,24 @@ func (a AmplitudeFamily) Transform(xi Interval) Complex { return a.times(a.Of.Tr
 func (a AmplitudeFamily) modulus() float64 { return PointC(complex(a.Re, a.Im)).Mag() }
 
 // Spatial is |c| times the envelope of f (amplitudes rounded up).
-func (a AmplitudeFamily) Spatial() Envelope { return a.Of.Spatial().Scaled(a.modulus()) }
+func (a AmplitudeFamily) Spatial() Envelope { return a.appendSpatial(nil) }
 
 // Spectral is |c| times the envelope of F.
-func (a AmplitudeFamily) Spectral() Envelope { return a.Of.Spectral().Scaled(a.modulus()) }
+func (a AmplitudeFamily) Spectral() Envelope { return a.appendSpectral(nil) }
+
+func (a AmplitudeFamily) appendSpatial(dst Envelope) Envelope {
+	n := len(dst)
+	dst = appendSpatial(dst, a.Of)
+	scaleTerms(dst[n:], a.modulus())
+	return dst
+}
+
+func (a AmplitudeFamily) appendSpectral(dst Envelope) Envelope {
+	n := len(dst)
+	dst = appendSpectral(dst, a.Of)
+	scaleTerms(dst[n:], a.modulus())
+	return dst
+}
 
 // ShiftFamily is f moved right by c:
 //
@@ -151,7 +275,7 @@ func (s ShiftFamily) validateNode(prefix string, nodes *int) error {
 	if err := validateChild(s.Of, prefix+"shift.of", nodes); err != nil {
 		return err
 	}
-	return validateNodeEnvelopes(s, prefix+"shift")
+	return nil
 }
 
 func (s ShiftFamily) String() string { return fmt.Sprintf("shift(by=%g, %v)", s.By, s.Of) }
@@ -168,12 +292,21 @@ func (s ShiftFamily) Transform(xi Interval) Complex {
 	return F.Mul(Cis(xi.Scale(-s.By)))
 }
 
-// Spatial is the envelope of f moved by c (Envelope.Shifted adds the
-// rounding of each new centre to its plateau).
-func (s ShiftFamily) Spatial() Envelope { return s.Of.Spatial().Shifted(s.By) }
+// Spatial is the envelope of f moved by c (the rounding of each new centre
+// joins its plateau).
+func (s ShiftFamily) Spatial() Envelope { return s.appendSpatial(nil) }
 
 // Spectral is the envelope of F: |F(ξ)e^{-iξc}| = |F(ξ)|.
-func (s ShiftFamily) Spectral() Envelope { return s.Of.Spectral() }
+func (s ShiftFamily) Spectral() Envelope { return s.appendSpectral(nil) }
+
+func (s ShiftFamily) appendSpatial(dst Envelope) Envelope {
+	n := len(dst)
+	dst = appendSpatial(dst, s.Of)
+	shiftTerms(dst[n:], s.By)
+	return dst
+}
+
+func (s ShiftFamily) appendSpectral(dst Envelope) Envelope { return appendSpectral(dst, s.Of) }
 
 // DilationFamily is f stretched by a ≠ 0 (a < 0 also reflects):
 //
@@ -199,7 +332,7 @@ func (d DilationFamily) validateNode(prefix string, nodes *int) error {
 	if err := validateChild(d.Of, prefix+"dilation.of", nodes); err != nil {
 		return err
 	}
-	return validateNodeEnvelopes(d, prefix+"dilation")
+	return nil
 }
 
 func (d DilationFamily) String() string { return fmt.Sprintf("dilation(by=%g, %v)", d.By, d.Of) }
@@ -214,16 +347,27 @@ func (d DilationFamily) Transform(xi Interval) Complex {
 
 // Spatial bounds |f(x/a)| ≤ env(x/a): the envelope of f, reflected if
 // a < 0 and dilated by |a| (see dilateEnvelope).
-func (d DilationFamily) Spatial() Envelope {
-	return dilateEnvelope(d.Of.Spatial(), d.By < 0, Point(math.Abs(d.By)))
+func (d DilationFamily) Spatial() Envelope { return d.appendSpatial(nil) }
+
+func (d DilationFamily) appendSpatial(dst Envelope) Envelope {
+	n := len(dst)
+	dst = appendSpatial(dst, d.Of)
+	dilateTerms(dst[n:], d.By < 0, Point(math.Abs(d.By)))
+	return dst
 }
 
 // Spectral bounds |a|·|F(aξ)| ≤ |a|·env(aξ) = |a|·env(ξ/(1/a)): the
 // envelope of F reflected if a < 0, dilated by an enclosure of 1/|a|, and
 // scaled by |a| (rounded up).
-func (d DilationFamily) Spectral() Envelope {
+func (d DilationFamily) Spectral() Envelope { return d.appendSpectral(nil) }
+
+func (d DilationFamily) appendSpectral(dst Envelope) Envelope {
 	abs := math.Abs(d.By)
-	return dilateEnvelope(d.Of.Spectral(), d.By < 0, Point(1).Div(Point(abs))).Scaled(abs)
+	n := len(dst)
+	dst = appendSpectral(dst, d.Of)
+	dilateTerms(dst[n:], d.By < 0, Interval{divDown(1, abs), divUp(1, abs)})
+	scaleTerms(dst[n:], abs)
+	return dst
 }
 
 // dilateEnvelope returns an envelope of g(x/b), for every b in the interval
@@ -238,7 +382,13 @@ func (d DilationFamily) Spectral() Envelope {
 // which rounds Gaussian and algebraic widths down and takes an exact factor,
 // every rounding here is on the safe side.
 func dilateEnvelope(e Envelope, reflect bool, B Interval) Envelope {
-	out := make(Envelope, len(e))
+	out := append(Envelope(nil), e...)
+	dilateTerms(out, reflect, B)
+	return out
+}
+
+// dilateTerms is dilateEnvelope in place.
+func dilateTerms(e Envelope, reflect bool, B Interval) {
 	for i, t := range e {
 		c := t.Center
 		if reflect {
@@ -258,9 +408,8 @@ func dilateEnvelope(e Envelope, reflect bool, B Interval) Envelope {
 		case Gaussian, Algebraic, Compact:
 			t.Width = mulUp(t.Width, B.Hi)
 		}
-		out[i] = t
+		e[i] = t
 	}
-	return out
 }
 
 // ModulationFamily is f times the carrier e^{iω₀x}:
@@ -287,7 +436,7 @@ func (m ModulationFamily) validateNode(prefix string, nodes *int) error {
 	if err := validateChild(m.Of, prefix+"modulation.of", nodes); err != nil {
 		return err
 	}
-	return validateNodeEnvelopes(m, prefix+"modulation")
+	return nil
 }
 
 func (m ModulationFamily) String() string {
@@ -309,10 +458,19 @@ func (m ModulationFamily) Transform(xi Interval) Complex {
 }
 
 // Spatial is the envelope of f: |f(x)e^{iω₀x}| = |f(x)|.
-func (m ModulationFamily) Spatial() Envelope { return m.Of.Spatial() }
+func (m ModulationFamily) Spatial() Envelope { return m.appendSpatial(nil) }
 
 // Spectral is the envelope of F moved by ω₀.
-func (m ModulationFamily) Spectral() Envelope { return m.Of.Spectral().Shifted(m.Omega0) }
+func (m ModulationFamily) Spectral() Envelope { return m.appendSpectral(nil) }
+
+func (m ModulationFamily) appendSpatial(dst Envelope) Envelope { return appendSpatial(dst, m.Of) }
+
+func (m ModulationFamily) appendSpectral(dst Envelope) Envelope {
+	n := len(dst)
+	dst = appendSpectral(dst, m.Of)
+	shiftTerms(dst[n:], m.Omega0)
+	return dst
+}
 
 // SumFamily is a finite sum of at least one family:
 //
@@ -339,7 +497,7 @@ func (s SumFamily) validateNode(prefix string, nodes *int) error {
 			return err
 		}
 	}
-	return validateNodeEnvelopes(s, prefix+"sum")
+	return nil
 }
 
 func (s SumFamily) String() string {
@@ -369,19 +527,21 @@ func (s SumFamily) Transform(xi Interval) Complex {
 }
 
 // Spatial is the sum of the terms' envelopes (|Σf_j| ≤ Σ|f_j|).
-func (s SumFamily) Spatial() Envelope {
-	var e Envelope
+func (s SumFamily) Spatial() Envelope { return s.appendSpatial(nil) }
+
+func (s SumFamily) appendSpatial(dst Envelope) Envelope {
 	for _, t := range s.Terms {
-		e = append(e, t.Spatial()...)
+		dst = appendSpatial(dst, t)
 	}
-	return e
+	return dst
 }
 
 // Spectral is the sum of the terms' spectral envelopes.
-func (s SumFamily) Spectral() Envelope {
-	var e Envelope
+func (s SumFamily) Spectral() Envelope { return s.appendSpectral(nil) }
+
+func (s SumFamily) appendSpectral(dst Envelope) Envelope {
 	for _, t := range s.Terms {
-		e = append(e, t.Spectral()...)
+		dst = appendSpectral(dst, t)
 	}
-	return e
+	return dst
 }

@@ -44,9 +44,8 @@ func (f FejerFamily) Value(x Interval) Complex {
 // Transform encloses (2π/Ω)·max(0, 1 - |ξ|/Ω), even and non-increasing in
 // |ξ|.
 func (f FejerFamily) Transform(xi Interval) Complex {
-	om := Point(f.Omega)
-	t := Point(1).Sub(xi.Abs().Div(om)).Max(Point(0))
-	return RealC(t.Mul(TwoPi.Div(om)))
+	t := Point(1).Sub(divPos(xi.Abs(), f.Omega)).Max(Point(0))
+	return RealC(t.Mul(divPos(TwoPi, f.Omega)))
 }
 
 // Spatial bounds f by an algebraic term of power 2 with a plateau:
@@ -64,7 +63,7 @@ func (f FejerFamily) Spatial() Envelope {
 
 // Spectral is the band limit: F ≤ 2π/Ω (rounded up) on |ξ| ≤ Ω, 0 beyond.
 func (f FejerFamily) Spectral() Envelope {
-	return Envelope{{Decay: Compact, Amplitude: TwoPi.Div(Point(f.Omega)).Hi, Width: f.Omega}}
+	return Envelope{{Decay: Compact, Amplitude: divUp(TwoPi.Hi, f.Omega), Width: f.Omega}}
 }
 
 // Constants for fejerSinc. sinc decreases on [0, u₁], u₁ = 4.4934… the
@@ -118,7 +117,7 @@ var fejerSincCoef = [5]Interval{
 // enclosure of sin t by t.
 func fejerSincPoint(t float64) Interval {
 	if t > fejerSincSeries {
-		r := Sin(Point(t)).Div(Point(t))
+		r := divPos(Sin(Point(t)), t)
 		return Interval{math.Max(-1, r.Lo), math.Min(1, r.Hi)}
 	}
 	u2 := Point(t).Sqr()

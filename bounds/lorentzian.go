@@ -45,7 +45,7 @@ func (l LorentzianFamily) Value(x Interval) Complex {
 // Transform encloses (π/a)·e^{-a|ξ|}, decreasing in |ξ|.
 func (l LorentzianFamily) Transform(xi Interval) Complex {
 	a := l.Width
-	return RealC(Exp(xi.Abs().Scale(-a)).Mul(Pi.Div(Point(a))))
+	return RealC(Exp(xi.Abs().Scale(-a)).Mul(divPos(Pi, a)))
 }
 
 // Spatial is an algebraic term of power 2 with a plateau:
@@ -64,5 +64,5 @@ func (l LorentzianFamily) Spatial() Envelope {
 // Spectral is F itself: an exponential term of amplitude π/a (rounded up)
 // and rate a.
 func (l LorentzianFamily) Spectral() Envelope {
-	return Envelope{{Decay: Exponential, Amplitude: Pi.Div(Point(l.Width)).Hi, Rate: l.Width}}
+	return Envelope{{Decay: Exponential, Amplitude: divUp(Pi.Hi, l.Width), Rate: l.Width}}
 }

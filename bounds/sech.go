@@ -32,7 +32,7 @@ func (s SechFamily) String() string { return fmt.Sprintf("sech(width=%g)", s.Wid
 
 // Value encloses sech(x/w), even and decreasing in |x|.
 func (s SechFamily) Value(x Interval) Complex {
-	return RealC(Sech(x.Div(Point(s.Width))))
+	return RealC(Sech(divPos(x, s.Width)))
 }
 
 // Transform encloses πw·sech(πwξ/2).
@@ -60,17 +60,4 @@ func (s SechFamily) Spatial() Envelope {
 func (s SechFamily) Spectral() Envelope {
 	pw := Pi.Scale(s.Width)
 	return Envelope{cappedExponential(pw.Hi, ln2.Hi, pw.Scale(0.5).Lo)}
-}
-
-// ln2 encloses ln 2 = 0.69314718055994530942….
-var ln2 = Log(Point(2))
-
-// cappedExponential returns the envelope term of
-//
-//	A·min(1, B·e^{-α|x|}) = A·e^{-α·max(0, |x| - ln(B)/α)},  B ≥ 1,
-//
-// given A rounded up, lnB ≥ ln B and α rounded down: the plateau ln(B)/α is
-// rounded up, so the term stays an upper bound.
-func cappedExponential(A, lnB, alpha float64) EnvelopeTerm {
-	return EnvelopeTerm{Decay: Exponential, Amplitude: A, Rate: alpha, Plateau: divUp(lnB, alpha)}
 }

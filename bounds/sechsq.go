@@ -35,7 +35,7 @@ func (s SechSquaredFamily) String() string { return fmt.Sprintf("sech2(width=%g)
 
 // Value encloses sech²(x/w).
 func (s SechSquaredFamily) Value(x Interval) Complex {
-	return RealC(Sech(x.Div(Point(s.Width))).Sqr())
+	return RealC(Sech(divPos(x, s.Width)).Sqr())
 }
 
 // Transform encloses 2w·q(πwξ/2) with q(v) = v/sinh v.
@@ -123,6 +123,7 @@ func xOverSinhPoint(t float64) Interval {
 		rem := mulUp(2.001, mulUp(mulUp(r2, r2), r2))
 		return Interval{addDown(p.Lo, -rem), math.Min(1, addUp(p.Hi, rem))}
 	}
-	q := Point(t).Div(Sinh(Point(t)))
-	return Interval{math.Max(0, q.Lo), math.Min(1, q.Hi)}
+	// t > 1/16 and sinh t > 0: t/sinh t is least at the upper end of sinh.
+	sh := Sinh(Point(t))
+	return Interval{math.Max(0, divDown(t, sh.Hi)), math.Min(1, divUp(t, sh.Lo))}
 }

@@ -40,7 +40,7 @@ func (p WavePacketFamily) String() string {
 
 // Value encloses exp(-x²/(2σ²))·cos(ω₀x).
 func (p WavePacketFamily) Value(x Interval) Complex {
-	g := Exp(x.Div(Point(p.Sigma)).Sqr().Scale(-0.5))
+	g := Exp(divPos(x, p.Sigma).Sqr().Scale(-0.5))
 	if p.Omega0 == 0 {
 		return RealC(g)
 	}
