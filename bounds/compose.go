@@ -370,48 +370,6 @@ func (d DilationFamily) appendSpectral(dst Envelope) Envelope {
 	return dst
 }
 
-// dilateEnvelope returns an envelope of g(x/b), for every b in the interval
-// B (B.Lo > 0), given an envelope e of g; with reflect it is an envelope of
-// g(-x/b). A term A·g(max(0, |y - c| - p)) becomes at y = x/b
-//
-//	A·g(max(0, |x - bc| - bp)/b) ≤ A·g(max(0, |x - c'| - p')/B.Hi)
-//
-// for any centre c' and p' ≥ p·B.Hi + max_b |bc - c'|, because every
-// profile g is non-increasing; so rates are divided by B.Hi (rounded down)
-// and widths multiplied by B.Hi (rounded up). Unlike Envelope.Dilated,
-// which rounds Gaussian and algebraic widths down and takes an exact factor,
-// every rounding here is on the safe side.
-func dilateEnvelope(e Envelope, reflect bool, B Interval) Envelope {
-	out := append(Envelope(nil), e...)
-	dilateTerms(out, reflect, B)
-	return out
-}
-
-// dilateTerms is dilateEnvelope in place.
-func dilateTerms(e Envelope, reflect bool, B Interval) {
-	for i, t := range e {
-		c := t.Center
-		if reflect {
-			c = -c
-		}
-		cb := Point(c).Mul(B)
-		nc := cb.Mid()
-		t.Center = nc
-		t.Plateau = mulUp(t.Plateau, B.Hi)
-		if cb.Lo != cb.Hi {
-			rad := math.Max(addUp(cb.Hi, -nc), addUp(nc, -cb.Lo))
-			t.Plateau = addUp(t.Plateau, rad)
-		}
-		switch t.Decay {
-		case Exponential:
-			t.Rate = divDown(t.Rate, B.Hi)
-		case Gaussian, Algebraic, Compact:
-			t.Width = mulUp(t.Width, B.Hi)
-		}
-		e[i] = t
-	}
-}
-
 // ModulationFamily is f times the carrier e^{iω₀x}:
 //
 //	f(x)·e^{iω₀x}  →  F(ξ - ω₀).
