@@ -1,6 +1,9 @@
 package gridding
 
-import "math"
+import (
+	"math"
+	"sort"
+)
 
 // Shape optimisation. The certified bound is expensive (interval
 // arithmetic, branch and bound over the band), so β is chosen by
@@ -10,34 +13,87 @@ import "math"
 // what plans report.
 
 // estimateSup returns the float64 estimate of sup over [0, θ_max] of the
-// bounding function of k, sampled at 9 frequencies across the band and 17
-// across its last 8π/W: the bound grows with θ as φ̂(θ) falls, and the
-// Kaiser-Bessel jump part oscillates with period 4π/W in θ.
+// bounding function of k. It samples 9 frequencies across the band and 17
+// across its last 8π/W (the bound grows with θ as φ̂(θ) falls, and the
+// Kaiser-Bessel jump part oscillates with period 4π/W in θ); for
+// Kaiser-Bessel also the frequencies where the nearest alias copy,
+// u = W(2π - θ)/2, sits at the centre or a side lobe of its sinc part,
+// v = √(u² - β²) in {0, 4.49, 7.73, 10.90, 14.07} (tan v = v), where the
+// bound changes fastest with θ. It then refines the largest sample by
+// golden-section search between its neighbours.
 func estimateSup(k Kernel, thetaMax float64) float64 {
 	s := newShapeEstimate(k)
-	worst := 0.0
-	eval := func(theta float64) bool {
+	f := func(theta float64) float64 {
 		r := s.ratioEstimate(theta)
 		if !(r <= math.MaxFloat64) {
-			worst = math.Inf(1)
-			return false
+			return math.Inf(1)
 		}
-		worst = math.Max(worst, r)
-		return true
+		return r
 	}
+	var xs []float64
 	const coarse, fine = 8, 16
 	for i := 0; i <= coarse; i++ {
-		if !eval(thetaMax * float64(i) / coarse) {
-			return worst
-		}
+		xs = append(xs, thetaMax*float64(i)/coarse)
 	}
 	span := math.Min(thetaMax, 8*math.Pi/float64(k.Width))
-	for i := 0; i < fine; i++ {
-		if !eval(thetaMax - span*float64(i)/fine) {
-			return worst
+	for i := 1; i < fine; i++ {
+		xs = append(xs, thetaMax-span*float64(i)/fine)
+	}
+	if k.Type == KaiserBessel {
+		w := float64(k.Width)
+		for _, v := range sincLobes {
+			u := math.Hypot(k.Beta, v)
+			if th := 2*math.Pi - 2*u/w; th > 0 && th < thetaMax {
+				xs = append(xs, th)
+			}
 		}
 	}
-	return worst
+	sort.Float64s(xs)
+	best, at := 0.0, 0
+	for i, x := range xs {
+		v := f(x)
+		if math.IsInf(v, 1) {
+			return v
+		}
+		if v > best {
+			best, at = v, i
+		}
+	}
+	a := xs[max(at-1, 0)]
+	b := xs[min(at+1, len(xs)-1)]
+	if b > a {
+		_, v := goldenMax(f, a, b, 14)
+		best = math.Max(best, v)
+	}
+	return best
+}
+
+// sincLobes are the centre and the first extrema of sin(v)/v (the roots of
+// tan v = v, DLMF 4.15 graphs; computed by Newton's method).
+var sincLobes = [...]float64{0, 4.493409457909064, 7.725251836937707, 10.904121659428899, 14.066193912831473}
+
+// goldenMax maximises f on [a, b] by golden-section search with n steps
+// and returns the best point and value found.
+func goldenMax(f func(float64) float64, a, b float64, n int) (float64, float64) {
+	const invPhi = 0.6180339887498949 // (√5 - 1)/2
+	c := b - invPhi*(b-a)
+	d := a + invPhi*(b-a)
+	fc, fd := f(c), f(d)
+	for i := 0; i < n; i++ {
+		if fc > fd {
+			b, d, fd = d, c, fc
+			c = b - invPhi*(b-a)
+			fc = f(c)
+		} else {
+			a, c, fc = c, d, fd
+			d = a + invPhi*(b-a)
+			fd = f(d)
+		}
+	}
+	if fc > fd {
+		return c, fc
+	}
+	return d, fd
 }
 
 // newShapeEstimate builds a shape for estimates only: the Gaussian's

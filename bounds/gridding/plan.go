@@ -271,9 +271,11 @@ type candidate struct {
 //
 // The estimated total falls with W while the kernel error dominates and
 // then rises with the rounding estimate, whose factor κ = φ̂(0)/φ̂(θ_max)
-// grows with W (the shape β grows with W). So the width W* of the smallest
-// estimate is found by bisection on the sign of est(W+1) - est(W), and the
-// smallest W ≤ W* whose estimate meets the tolerance by bisection below it.
+// grows with W (the shape β grows with W). The search starts from the
+// width the asymptotic rate predicts (guessWidth), moves down while the
+// estimate still meets the tolerance and up until it does, and gives up
+// when the estimate stops falling. The chosen width is then certified,
+// moving up while the certified total exceeds the tolerance and falls.
 func planOne(ctx context.Context, req Request, sigma float64, m int) (*Option, Option, error) {
 	d := req.Dim
 	base := Setup{Modes: req.Modes, Grid: m}
@@ -294,47 +296,40 @@ func planOne(ctx context.Context, req Request, sigma float64, m int) (*Option, O
 		cache[w] = c
 		return c
 	}
-	maxW := min(MaxWidth, m)
 	check := func() error {
 		if err := ctx.Err(); err != nil {
 			return fmt.Errorf("gridding: plan: %w", err)
 		}
 		return nil
 	}
-	// W* = the smallest W with est(W+1) ≥ est(W).
-	lo, hi := MinWidth, maxW
-	for lo < hi {
-		if err := check(); err != nil {
-			return nil, Option{}, err
-		}
-		mid := (lo + hi) / 2
-		if estimate(mid+1).est >= estimate(mid).est {
-			hi = mid
-		} else {
-			lo = mid + 1
-		}
-	}
-	wStar := lo
+	maxW := min(MaxWidth, m)
 	// A 2% margin for the certification.
 	meets := func(w int) bool { return estimate(w).est <= req.Tolerance/1.02 }
-	if !meets(wStar) {
-		o, err := certify(ctx, req, sigma, m, estimate(wStar).kernel)
-		return nil, o, err
+	w := min(max(guessWidth(req.Kernel, sigma, req.Tolerance/float64(d)), MinWidth), maxW)
+	if err := check(); err != nil {
+		return nil, Option{}, err
 	}
-	lo, hi = MinWidth, wStar
-	for lo < hi {
-		if err := check(); err != nil {
-			return nil, Option{}, err
+	if meets(w) {
+		for w > MinWidth && meets(w-1) {
+			w--
 		}
-		mid := (lo + hi) / 2
-		if meets(mid) {
-			hi = mid
-		} else {
-			lo = mid + 1
+	} else {
+		for {
+			if err := check(); err != nil {
+				return nil, Option{}, err
+			}
+			if w == maxW || estimate(w+1).est >= estimate(w).est {
+				o, err := certify(ctx, req, sigma, m, estimate(w).kernel)
+				return nil, o, err
+			}
+			w++
+			if meets(w) {
+				break
+			}
 		}
 	}
 	var last Option
-	for w := lo; w <= maxW; w++ {
+	for ; w <= maxW; w++ {
 		o, err := certify(ctx, req, sigma, m, estimate(w).kernel)
 		if err != nil {
 			return nil, Option{}, err
@@ -342,13 +337,24 @@ func planOne(ctx context.Context, req Request, sigma float64, m int) (*Option, O
 		if o.Total <= req.Tolerance {
 			return &o, o, nil
 		}
-		if w > lo && o.Total >= last.Total {
+		if last.Setup.Grid != 0 && o.Total >= last.Total {
 			// Past the smallest certified total.
 			return nil, last, nil
 		}
 		last = o
 	}
 	return nil, last, nil
+}
+
+// guessWidth returns the width at which the kernel error reaches tol by
+// the asymptotic rates of doc.go, step 7: e^{-πW√(1-1/σ)} for
+// Kaiser-Bessel and e^{-πW(σ-1)/(2σ-1)} for the Gaussian.
+func guessWidth(t KernelType, sigma, tol float64) int {
+	rate := math.Pi * (sigma - 1) / (2*sigma - 1)
+	if t == KaiserBessel {
+		rate = math.Pi * math.Sqrt(1-1/sigma)
+	}
+	return int(math.Ceil(math.Log(1/tol) / rate))
 }
 
 // certify computes the certified bound and the cost of one configuration.
