@@ -107,13 +107,19 @@ func Bound(ctx context.Context, s Setup, dim int) (ErrorBound, error) {
 	return b, nil
 }
 
-// dimTotal returns (1 + ε)^d - 1 rounded upward: with per-axis relative
-// errors |e_i| ≤ ε, |Π(1 + e_i) - 1| ≤ Π(1 + |e_i|) - 1 (doc.go, step 6).
+// dimTotal returns (1 + ε)^d - 1 = Σ_{j=1}^{d} C(d, j)·ε^j rounded upward
+// (summed by the binomial theorem, which keeps relative accuracy for
+// small ε): with per-axis relative errors |e_i| ≤ ε,
+// |Π(1 + e_i) - 1| ≤ Π(1 + |e_i|) - 1 (doc.go, step 6).
 func dimTotal(eps float64, d int) float64 {
-	if d == 1 {
-		return eps
+	e := bounds.Point(eps)
+	var sum bounds.Interval
+	binom := 1.0
+	for j := 1; j <= d; j++ {
+		binom = binom * float64(d-j+1) / float64(j) // exact for d ≤ 3
+		sum = sum.Add(e.IntPow(j).Scale(binom))
 	}
-	return bounds.Point(1).Add(bounds.Point(eps)).IntPow(d).AddFloat(-1).Hi
+	return sum.Hi
 }
 
 // piece is one frequency interval with the upper bound of the bounding

@@ -319,6 +319,11 @@ func planOne(ctx context.Context, req Request, sigma float64, m int) (*Option, O
 				return nil, Option{}, err
 			}
 			if w == maxW || estimate(w+1).est >= estimate(w).est {
+				// Past the smallest estimate (or started beyond it): walk
+				// down to it, to report what is achievable.
+				for w > MinWidth && estimate(w-1).est < estimate(w).est {
+					w--
+				}
 				o, err := certify(ctx, req, sigma, m, estimate(w).kernel)
 				return nil, o, err
 			}
