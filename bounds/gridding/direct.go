@@ -57,7 +57,7 @@ func checkDirect(n, points int) error {
 // k = -⌊N/2⌋, …, ⌈N/2⌉-1 directly (N·len(x) terms). Errors wrap
 // bounds.ErrInvalid or bounds.ErrWorkLimit, or the context's error.
 func Direct1(ctx context.Context, n int, x []float64, c []complex128) ([]complex128, error) {
-	if err := checkPoints(x, len(c), "c"); err != nil {
+	if err := checkPoints(x, "x", len(c), "c"); err != nil {
 		return nil, err
 	}
 	if err := checkValues(c, "c"); err != nil {
@@ -91,7 +91,7 @@ func Direct1(ctx context.Context, n int, x []float64, c []complex128) ([]complex
 // k = -⌊N/2⌋, …, ⌈N/2⌉-1 (f[0] is k = -⌊N/2⌋) directly.
 func Direct2(ctx context.Context, x []float64, f []complex128) ([]complex128, error) {
 	n := len(f)
-	if err := checkPoints(x, len(x), "x"); err != nil {
+	if err := checkPoints(x, "x", len(x), "x"); err != nil {
 		return nil, err
 	}
 	if err := checkValues(f, "f"); err != nil {

@@ -72,16 +72,18 @@ func (t *Transform) Setup() Setup { return t.setup }
 // their degree.
 func (t *Transform) KernelFitError() (float64, int) { return t.poly.maxErr, t.poly.p }
 
-func checkPoints(x []float64, n int, what string) error {
+// checkPoints checks the coordinates x (named name in errors) and that
+// there are n values, named what, for them.
+func checkPoints(x []float64, name string, n int, what string) error {
 	if len(x) != n {
-		return invalid(what, "need one strength per point: %d points, %d values", len(x), n)
+		return invalid(what, "need one value per point: %d points, %d values", len(x), n)
 	}
 	if len(x) > MaxPointCount {
-		return workLimit("x", "at most %d points, got %d", MaxPointCount, len(x))
+		return workLimit(name, "at most %d points, got %d", MaxPointCount, len(x))
 	}
 	for i, v := range x {
 		if !finite(v) || v < -math.Pi || v > math.Pi {
-			return invalid(fmt.Sprintf("x[%d]", i), "must be finite and in [-π, π], got %g", v)
+			return invalid(fmt.Sprintf("%s[%d]", name, i), "must be finite and in [-π, π], got %g", v)
 		}
 	}
 	return nil
@@ -123,7 +125,7 @@ func (t *Transform) locate(x float64) (int, float64) {
 // Bound(t.Setup(), 1).Total·Σ|c_j| in exact arithmetic, plus rounding
 // (RoundingEstimate). x_j must lie in [-π, π].
 func (t *Transform) Type1(ctx context.Context, x []float64, c []complex128) ([]complex128, error) {
-	if err := checkPoints(x, len(c), "c"); err != nil {
+	if err := checkPoints(x, "x", len(c), "c"); err != nil {
 		return nil, err
 	}
 	if err := checkValues(c, "c"); err != nil {
@@ -174,7 +176,7 @@ func (t *Transform) Type2(ctx context.Context, x []float64, f []complex128) ([]c
 	if len(f) != n {
 		return nil, invalid("f", "need %d mode values, got %d", n, len(f))
 	}
-	if err := checkPoints(x, len(x), "x"); err != nil {
+	if err := checkPoints(x, "x", len(x), "x"); err != nil {
 		return nil, err
 	}
 	if err := checkValues(f, "f"); err != nil {

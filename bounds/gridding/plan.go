@@ -38,11 +38,13 @@ type CostModel struct {
 	FFT    float64 // per grid point and factor log2 of the grid size, ≥ 0
 }
 
-// DefaultCostModel holds weights in nanoseconds measured on this package's
-// 1-D transform (BenchmarkSpread, BenchmarkFFT; amd64, one core): about
-// 2.9 ns per point and cell for spreading with kernel evaluation, and
-// 1.5 ns per M·log2 M for gonum's complex FFT.
-var DefaultCostModel = CostModel{Spread: 2.9, FFT: 1.5}
+// DefaultCostModel holds weights in nanoseconds of CPU time measured on
+// this package (amd64, one thread, TestType1 harness with getrusage):
+// spreading costs 5-25 ns per point and grid cell, depending on W and on
+// the degree of the kernel polynomials the tolerance needs (about 10 at
+// W = 8 and tolerance 1e-9), and gonum's complex FFT, including its set-up,
+// 7-13 ns per M·log2 M.
+var DefaultCostModel = CostModel{Spread: 10, FFT: 10}
 
 // Request asks for the kernels that meet a tolerance.
 type Request struct {
