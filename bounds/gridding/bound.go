@@ -15,6 +15,9 @@ const (
 	MaxModes = 1 << 40
 	// MaxDim is the largest dimension a plan accepts.
 	MaxDim = 3
+	// maxPlanGrid is the largest grid per axis a setup may describe
+	// (MaxModes·MaxOversampling).
+	maxPlanGrid = 1 << 44
 )
 
 // Setup is one gridding configuration for N modes per axis: the
@@ -36,8 +39,8 @@ func (s Setup) Validate() error {
 	if err := s.Kernel.Validate(); err != nil {
 		return err
 	}
-	if s.Grid <= s.Modes || s.Grid > 4*MaxModes {
-		return invalid("setup.grid", "must exceed the number of modes %d (oversampling > 1) and be at most 2^42, got %d", s.Modes, s.Grid)
+	if s.Grid <= s.Modes || s.Grid > maxPlanGrid {
+		return invalid("setup.grid", "must exceed the number of modes %d (oversampling > 1) and be at most 2^44, got %d", s.Modes, s.Grid)
 	}
 	if s.Grid < s.Kernel.Width {
 		return invalid("setup.grid", "must be at least the kernel width %d, got %d", s.Kernel.Width, s.Grid)

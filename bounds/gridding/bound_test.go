@@ -303,3 +303,39 @@ func TestBoundBadInput(t *testing.T) {
 		}
 	}
 }
+
+// Consistency with the engine: bounds.AliasSum gives the error of the
+// untruncated Gaussian on the unit grid at a shift (the aliasing of step 2)
+// and of the Kaiser-Bessel kernel on the infinite grid with the midpoint
+// value 1/2 at its edges (the average of the two window conventions). Both
+// errors, over φ̂, stay below the bounding function.
+func TestBoundAgainstAliasSum(t *testing.T) {
+	ctx := context.Background()
+	for _, k := range []Kernel{{Gaussian, 14, 16.02}, {Gaussian, 7, 7.9}, {KaiserBessel, 8, 18.68}, {KaiserBessel, 5, 11.34}} {
+		s := newShape(k)
+		var fam bounds.Family
+		if k.Type == Gaussian {
+			fam = bounds.GaussianFamily{Sigma: k.Sigma()}
+		} else {
+			fam = bounds.KaiserBesselFamily{Width: float64(k.Width), Beta: k.Beta}
+		}
+		for _, theta := range []float64{0.2, 1.1, math.Pi / 2} {
+			p := s.enclose(bounds.Point(theta))
+			for _, shift := range []float64{0, 0.13, 0.5, 0.77} {
+				r, err := bounds.AliasSum(ctx, fam, bounds.Grid{Step: 1, Shift: shift}, theta, bounds.Settings{})
+				if err != nil {
+					t.Fatal(err)
+				}
+				limit := p.alias.Hi
+				if k.Type == KaiserBessel {
+					limit += p.trunc.Hi
+				}
+				// Both are enclosures: a violation is a lower end of
+				// |alias| above the upper end of the bound.
+				if m := r.Alias.Mig(); m > limit {
+					t.Errorf("%v θ=%g s=%g: |alias| ≥ %.17g (AliasSum) > bound %.17g", k, theta, shift, m, limit)
+				}
+			}
+		}
+	}
+}

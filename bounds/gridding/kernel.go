@@ -104,12 +104,14 @@ func (k Kernel) Tau(m int) float64 {
 // value returns φ(y) in float64 for |y| ≤ W/2 (the caller applies the
 // window).
 func (k Kernel) value(y float64) float64 {
-	t := 2 * y / float64(k.Width)
 	switch k.Type {
 	case Gaussian:
-		return math.Exp(-k.Beta * t * t)
+		// The form the bound is computed for (bounds.GaussianFamily with
+		// σ = Sigma()).
+		r := y / k.Sigma()
+		return math.Exp(-r * r / 2)
 	default:
-		a := math.Abs(t)
+		a := math.Abs(2 * y / float64(k.Width))
 		return besselI0(k.Beta * math.Sqrt(math.Max(0, (1-a)*(1+a))))
 	}
 }

@@ -203,7 +203,7 @@ func Plan(ctx context.Context, req Request) (Result, error) {
 		}
 		if opt == nil {
 			note := fmt.Sprintf("σ = %g (M = %d): no width up to %d meets %g; smallest total found %.3g at %v",
-				sigma, m, MaxWidth, req.Tolerance, achievable.Total, achievable.Setup.Kernel)
+				sigma, m, min(MaxWidth, m), req.Tolerance, achievable.Total, achievable.Setup.Kernel)
 			res.Notes = append(res.Notes, note)
 			if achievable.Total < bestTotal {
 				bestTotal = achievable.Total
@@ -234,8 +234,10 @@ func ratios(s []float64) string {
 // gridSize returns M = ⌈σN⌉, rounded up to 2^a·3^b·5^c unless any.
 func gridSize(n int, sigma float64, any bool) (int, error) {
 	mf := math.Ceil(sigma * float64(n))
-	if mf > 4*MaxModes {
-		return 0, workLimit("plan.modes", "grid of %g points per axis exceeds 2^42", mf)
+	if mf > maxPlanGrid {
+		// Unreachable with MaxModes and MaxOversampling; kept as a guard.
+		// 2^44 is itself 2-smooth, so rounding up stays within it.
+		return 0, workLimit("plan.modes", "grid of %g points per axis exceeds 2^44", mf)
 	}
 	m := int(mf)
 	if m <= n {
