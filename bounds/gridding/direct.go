@@ -19,8 +19,8 @@ import (
 // math/big.
 
 // MaxDirectWork is the largest number of terms (points × modes) a direct
-// sum accepts.
-const MaxDirectWork = 1 << 32
+// sum accepts (about a minute of CPU time).
+const MaxDirectWork = 1 << 30
 
 // ddSum is a double-double accumulator.
 type ddSum struct{ hi, lo float64 }

@@ -10,9 +10,9 @@ import (
 
 // Limits on executed transforms.
 const (
-	// MaxGrid is the largest oversampled grid (points per axis) a Transform
-	// allocates.
-	MaxGrid = 1 << 26
+	// MaxGrid is the largest oversampled grid a Transform allocates, in
+	// points (per axis in 1-D, M² in 2-D): 2^24 complex values, 256 MiB.
+	MaxGrid = 1 << 24
 	// MaxPointCount is the largest number of non-uniform points per call.
 	MaxPointCount = 1 << 26
 )

@@ -2,6 +2,7 @@ package gridding
 
 import (
 	"context"
+	"errors"
 	"fmt"
 	"math"
 	"sort"
@@ -370,6 +371,11 @@ func guessWidth(t KernelType, sigma, tol float64) int {
 func certify(ctx context.Context, req Request, sigma float64, m int, k Kernel) (Option, error) {
 	s := Setup{Modes: req.Modes, Grid: m, Kernel: k}
 	b, err := Bound(ctx, s, req.Dim)
+	if errors.Is(err, bounds.ErrNotFinite) {
+		// The transform reaches 0 in the band: this shape cannot serve.
+		inf := math.Inf(1)
+		return Option{Oversampling: sigma, Setup: s, Bound: ErrorBound{PerAxis: inf, Total: inf}, Total: inf, Cost: inf}, nil
+	}
 	if err != nil {
 		return Option{}, err
 	}
