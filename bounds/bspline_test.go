@@ -310,15 +310,13 @@ func TestBSplineContainment(t *testing.T) {
 // unity Σ_k M_1(1/2 + k) = M_1(-1/2) + M_1(1/2) = 1 (de Boor, from memory)
 // AliasSum returns [0, 2].
 func TestGridAtWidensExactJumps(t *testing.T) {
-	t.Skip("bug: Grid.At (grid.go) widens exactly representable positions s + hk " +
-		"(Point(h).Scale(k) steps outward even when h·k is exact), so samples exactly on a jump " +
-		"lose the midpoint convention; fix: return Point(x) when math.FMA(h, k, -h*k) == 0 and " +
-		"s + h·k is exact (TwoSum error 0). Owner: lead.")
 	r, err := AliasSum(context.Background(), BSplineFamily{Order: 1}, Grid{Step: 1, Shift: 0.5}, 0, Settings{})
 	if err != nil {
 		t.Fatal(err)
 	}
-	if w := r.Sampled.Re.Width(); w > 1e-15 {
+	// A few ulps of rounding from the sum itself are expected; the hull of
+	// both sides of the jump would be [0, 2].
+	if w := r.Sampled.Re.Width(); w > 1e-14 || !r.Sampled.Re.Contains(1) {
 		t.Errorf("Σ_k M_1(1/2 + k) = %v: width %.3g, want the point 1 (midpoint values 1/2 + 1/2)", r.Sampled, w)
 	}
 }
@@ -332,9 +330,6 @@ func TestGridAtWidensExactJumps(t *testing.T) {
 // with ErrWorkLimit after about 3 s, although the spatial side needs 66
 // samples (Settings{Side: SpatialSide} succeeds).
 func TestAutoSideZeroAliasSum(t *testing.T) {
-	t.Skip("bug: alias.go AutoSide picks the spectral side when the alias sum is exactly zero; " +
-		"spectralAlias then needs more than MaxTerms terms (ErrWorkLimit, ~3 s) instead of falling " +
-		"back to the spatial side or taking an absolute goal. Owner: lead.")
 	b := BSplineFamily{Order: 8}
 	g := Grid{Step: 0.2, Shift: -0.06142}
 	r, err := AliasSum(context.Background(), b, g, -4*math.Pi, Settings{})
