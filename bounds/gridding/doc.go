@@ -44,9 +44,11 @@
 //
 //	|f̃_k - f_k| ≤ ε·Σ_j |c_j|     (type 1),     |c̃_j - c_j| ≤ ε·Σ_k |f_k|     (type 2),
 //
-// where ε = sup_{|θ|≤θ_max} ε(θ) and ε(θ) is the bounding function of
-// steps 2-4. In d dimensions with a tensor-product kernel ε becomes
-// (1 + ε)^d - 1 (step 6). Bound returns ε, certified.
+// where ε is the sup over |θ| ≤ θ_max of the bounding function
+// (A(θ) + T(θ))/φ̂(θ) of steps 2-4, an upper bound of the per-mode error
+// ε(θ) of step 1. In d dimensions with a tensor-product kernel ε becomes
+// (1 + ε)^d - 1 (step 6). Bound returns ε, certified; rounding is estimated
+// separately (RoundingEstimate).
 //
 // Step 1, the exact error of each point. Since e^{-iθ_k m} has period M in
 // m, the FFT of the periodic grid equals the sum over all grid points of

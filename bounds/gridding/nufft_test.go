@@ -3,9 +3,7 @@ package gridding
 import (
 	"context"
 	"errors"
-	"fmt"
 	"math"
-	"sort"
 	"testing"
 
 	"foldbound/bounds"
@@ -292,7 +290,3 @@ func TestTransformHonoursContext(t *testing.T) {
 		t.Errorf("Plan error = %v, want context.Canceled", err)
 	}
 }
-
-// keep sort and fmt imported for helpers added below.
-var _ = sort.Float64s
-var _ = fmt.Sprint

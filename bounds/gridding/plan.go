@@ -11,12 +11,10 @@ import (
 	"foldbound/bounds"
 )
 
-// DefaultOversampling is the candidate set of oversampling ratios a plan
-// tries when the request gives none.
-var defaultOversampling = [...]float64{1.25, 1.5, 2}
-
-// DefaultOversampling returns the default candidate oversampling ratios.
-func DefaultOversampling() []float64 { return defaultOversampling[:] }
+// DefaultOversampling returns the candidate oversampling ratios a plan
+// tries when the request gives none: 1.25, 1.5 and 2 (a new slice each
+// time).
+func DefaultOversampling() []float64 { return []float64{1.25, 1.5, 2} }
 
 // Limits on plan requests.
 const (
@@ -138,6 +136,8 @@ func (r *Request) normalise() error {
 	}
 	if r.Oversampling == nil {
 		r.Oversampling = DefaultOversampling()
+	} else {
+		r.Oversampling = append([]float64(nil), r.Oversampling...)
 	}
 	if len(r.Oversampling) == 0 || len(r.Oversampling) > MaxCandidates {
 		return invalid("kernel.oversampling", "need 1 to %d candidate ratios, got %d", MaxCandidates, len(r.Oversampling))
