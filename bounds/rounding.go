@@ -5,10 +5,21 @@ import "math"
 // Directed rounding without access to the FPU rounding mode.
 //
 // Go rounds every +, -, *, / and math.Sqrt to nearest (IEEE 754), so the
-// exact result lies within half an ulp of the computed one. Stepping one ulp
-// outward with nextUp/nextDown therefore gives a correct directed bound.
-// This costs at most one ulp of width per operation against true directed
-// rounding.
+// exact result lies within half an ulp of the computed one r. Stepping one
+// ulp outward with nextUp/nextDown therefore gives a correct directed bound.
+// Where the rounding error of r can be computed exactly, r itself is kept
+// when it already lies on the correct side:
+//
+//	a + b = s + e exactly, s = RN(a+b)  (TwoSum; Knuth, TAOCP vol. 2, 4.2.2, Thm B)
+//	a · b = p + e exactly, e = RN(a·b - p) by one fused multiply-add,
+//	        provided |p| ≥ 2⁻⁹⁶⁸ so that e is representable
+//	        (Muller et al., Handbook of Floating-Point Arithmetic, 2nd ed. 2018, 4.4.2 — from memory)
+//	a = s² + e exactly, e = RN(a - s·s), s = RN(√a), for a ≥ 2⁻⁹⁶⁸ (same source, 4.7)
+//
+// so that sums, products and square roots round exactly as true directed
+// rounding would. Quotients step one ulp outward. Overflow to ±Inf is
+// handled: a sum or product of finite numbers that rounds to +Inf exceeds
+// MaxFloat64, so MaxFloat64 is a valid lower bound.
 
 // nextUp returns the least float64 greater than x (x itself for +Inf, NaN).
 func nextUp(x float64) float64 {
@@ -27,60 +38,138 @@ func nextUp(x float64) float64 {
 // nextDown returns the greatest float64 less than x (x itself for -Inf, NaN).
 func nextDown(x float64) float64 { return -nextUp(-x) }
 
-func addUp(a, b float64) float64   { return nextUp(a + b) }
-func addDown(a, b float64) float64 { return nextDown(a + b) }
+// minExact is the least magnitude of a rounded product or radicand for which
+// the error term computed by a fused multiply-add is exact: the exact
+// product of two float64 has its last bit at 2^(qa+qb) with qa+qb > log2|p| - 106.
+const minExact = 0x1p-968
+
+// addUp returns an upper bound on a + b: RN(a+b) if that is already above
+// the exact sum, else the next float64. +Inf + -Inf gives +Inf.
+func addUp(a, b float64) float64 {
+	s := a + b
+	// TwoSum error e = (a+b) - s; NaN when s or an operand is infinite.
+	// An infinite e could only come from an intermediate overflow and is
+	// not trusted.
+	bb := s - a
+	if e := (a - (s - bb)) + (b - bb); e <= 0 && e >= -math.MaxFloat64 {
+		return s
+	}
+	if s != s {
+		return math.Inf(1)
+	}
+	return nextUp(s)
+}
+
+// addDown returns a lower bound on a + b, the mirror of addUp.
+func addDown(a, b float64) float64 {
+	s := a + b
+	bb := s - a
+	if e := (a - (s - bb)) + (b - bb); e >= 0 && e <= math.MaxFloat64 {
+		return s
+	}
+	if s != s {
+		return math.Inf(-1)
+	}
+	return nextDown(s)
+}
 
 // mulUp and mulDown treat 0 times ±Inf as 0 (IEEE 1788) and are exact when
-// a factor is 0; other products step one ulp outward.
+// a factor is 0 or the product is exact; other products round outward.
 func mulUp(a, b float64) float64 {
 	if a == 0 || b == 0 {
 		return 0
 	}
-	return nextUp(a * b)
+	p := a * b
+	// e = a·b - p; -Inf when a finite product overflowed to +Inf, NaN when
+	// an operand is infinite.
+	if e := math.FMA(a, b, -p); e <= 0 && math.Abs(p) >= minExact {
+		return p
+	}
+	if p == 0 && (a < 0) != (b < 0) {
+		return 0 // a negative product underflowed
+	}
+	return nextUp(p)
 }
 
 func mulDown(a, b float64) float64 {
 	if a == 0 || b == 0 {
 		return 0
 	}
-	return nextDown(a * b)
+	p := a * b
+	if e := math.FMA(a, b, -p); e >= 0 && math.Abs(p) >= minExact {
+		return p
+	}
+	if p == 0 && (a < 0) == (b < 0) {
+		return 0 // a positive product underflowed
+	}
+	return nextDown(p)
 }
 
+// divUp and divDown return outward bounds on a / b for b ≠ 0; 0/b is 0.
+// ±Inf/±Inf has no limit: the bound is the infinity on the bound's side.
 func divUp(a, b float64) float64 {
 	if a == 0 {
 		return 0
 	}
-	return nextUp(a / b)
+	q := a / b
+	switch {
+	case q != q:
+		return math.Inf(1)
+	case q == 0 && (a < 0) != (b < 0):
+		return 0 // a negative quotient underflowed
+	}
+	return nextUp(q)
 }
 
 func divDown(a, b float64) float64 {
 	if a == 0 {
 		return 0
 	}
-	return nextDown(a / b)
+	q := a / b
+	switch {
+	case q != q:
+		return math.Inf(-1)
+	case q == 0 && (a < 0) == (b < 0):
+		return 0 // a positive quotient underflowed
+	}
+	return nextDown(q)
 }
 
+// sqrtUp and sqrtDown bound √a for a ≥ 0; they return 0 for a ≤ 0.
 func sqrtUp(a float64) float64 {
 	if a <= 0 {
 		return 0
 	}
-	return nextUp(math.Sqrt(a))
+	s := math.Sqrt(a)
+	// e = a - s² exactly; e ≤ 0 means s ≥ √a.
+	if a >= minExact && a <= math.MaxFloat64 && math.FMA(-s, s, a) <= 0 {
+		return s
+	}
+	return nextUp(s)
 }
 
 func sqrtDown(a float64) float64 {
 	if a <= 0 {
 		return 0
 	}
-	return nextDown(math.Sqrt(a))
+	s := math.Sqrt(a)
+	if a >= minExact && a <= math.MaxFloat64 && math.FMA(-s, s, a) >= 0 {
+		return s
+	}
+	return nextDown(s)
 }
 
-// Elementary-function widening. See "Accuracy" in doc.go: we assume every
-// math function we call is within libmUlps ulps of the exact value, and widen
-// each result r to [r - |r|·libmRel - libmAbs, r + |r|·libmRel + libmAbs].
+// Elementary-function widening. See "Accuracy" in the package
+// documentation: we assume every math function we call is within libmUlps
+// ulps of the exact value (measured against math/big references in
+// elementary_test.go), and widen each result r to
+//
+//	[r - |r|·libmRel - libmAbs, r + |r|·libmRel + libmAbs].
+//
 // libmRel = 2⁻⁴⁹ is at least 8 ulps of r for every normal r (an ulp is at
-// most 2⁻⁵² |r|), so after the final rounding at least 7 ulps remain; libmAbs
-// = 2⁻¹⁰⁶⁰ is 2¹⁴ ulps of the subnormal spacing and covers results that
-// underflow.
+// most 2⁻⁵² |r|), so after the rounding of the widening itself at least 7
+// ulps remain; libmAbs = 2⁻¹⁰⁶⁰ is 2¹⁴ units of the subnormal spacing and
+// covers results that underflow.
 const (
 	libmUlps = 4
 	libmRel  = 0x1p-49
@@ -88,7 +177,8 @@ const (
 )
 
 // widenUp returns an upper bound on a quantity computed as r by a math
-// function accurate to libmUlps ulps.
+// function accurate to libmUlps ulps. It must only see +Inf from a math
+// function whose exact value overflowed (exceeds MaxFloat64).
 func widenUp(r float64) float64 {
 	switch {
 	case math.IsInf(r, 1):
