@@ -124,7 +124,7 @@ func refExp(x *big.Float) *big.Float {
 	if q.Sign() < 0 && !q.IsInt() {
 		n-- // floor
 	}
-	r := newF(2 * workPrec).Mul(bint(n, 2*workPrec), ln2)
+	r := newF(2*workPrec).Mul(bint(n, 2*workPrec), ln2)
 	r.Sub(newF(2*workPrec).Set(x), r)
 	r.SetPrec(wp)
 	r.SetMantExp(r, -halvings)
@@ -206,7 +206,7 @@ func refLog(x *big.Float) *big.Float {
 	t.Quo(t, newF(wp).Add(m, one))
 	s := atanhSeries(t, wp)
 	s.Mul(s, bint(2, wp))
-	l := newF(2 * workPrec).Mul(bint(int64(e), 2*workPrec), refLn2())
+	l := newF(2*workPrec).Mul(bint(int64(e), 2*workPrec), refLn2())
 	return l.Add(l, s).SetPrec(wp)
 }
 
