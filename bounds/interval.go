@@ -91,8 +91,11 @@ func (x Interval) Mig() float64 {
 // magnitude, (Hi-Lo)/Mag; 0 for the point 0.
 func (x Interval) RelWidth() float64 {
 	m := x.Mag()
-	if m == 0 {
+	switch {
+	case m == 0:
 		return 0
+	case math.IsInf(m, 1):
+		return math.Inf(1)
 	}
 	return divUp(x.Width(), m)
 }
@@ -159,12 +162,15 @@ func (x Interval) Mul(y Interval) Interval {
 	return Interval{lo, hi}
 }
 
-// Scale returns v * x for a float64 v.
+// Scale returns v * x for a float64 v; a NaN v gives Entire.
 func (x Interval) Scale(v float64) Interval {
-	if v >= 0 {
+	switch {
+	case v >= 0:
 		return Interval{mulDown(x.Lo, v), mulUp(x.Hi, v)}
+	case v < 0:
+		return Interval{mulDown(x.Hi, v), mulUp(x.Lo, v)}
 	}
-	return Interval{mulDown(x.Hi, v), mulUp(x.Lo, v)}
+	return entire
 }
 
 // Sqr returns {v² : v in x}, tighter than x.Mul(x) when x contains 0.
@@ -174,15 +180,31 @@ func (x Interval) Sqr() Interval {
 }
 
 // Div returns x / y. If y contains 0 the result is Entire.
+//
+// The endpoints are chosen by the signs of x and y (IEEE 1788, Table 3 —
+// from memory), so that no ∞/∞ arises from valid operands.
 func (x Interval) Div(y Interval) Interval {
-	if y.ContainsZero() {
-		return entire
+	switch {
+	case y.Lo > 0:
+		switch {
+		case x.Lo >= 0:
+			return Interval{divDown(x.Lo, y.Hi), divUp(x.Hi, y.Lo)}
+		case x.Hi <= 0:
+			return Interval{divDown(x.Lo, y.Lo), divUp(x.Hi, y.Hi)}
+		default:
+			return Interval{divDown(x.Lo, y.Lo), divUp(x.Hi, y.Lo)}
+		}
+	case y.Hi < 0:
+		switch {
+		case x.Lo >= 0:
+			return Interval{divDown(x.Hi, y.Hi), divUp(x.Lo, y.Lo)}
+		case x.Hi <= 0:
+			return Interval{divDown(x.Hi, y.Lo), divUp(x.Lo, y.Hi)}
+		default:
+			return Interval{divDown(x.Hi, y.Hi), divUp(x.Lo, y.Hi)}
+		}
 	}
-	lo := math.Min(math.Min(divDown(x.Lo, y.Lo), divDown(x.Lo, y.Hi)),
-		math.Min(divDown(x.Hi, y.Lo), divDown(x.Hi, y.Hi)))
-	hi := math.Max(math.Max(divUp(x.Lo, y.Lo), divUp(x.Lo, y.Hi)),
-		math.Max(divUp(x.Hi, y.Lo), divUp(x.Hi, y.Hi)))
-	return Interval{lo, hi}
+	return entire
 }
 
 // Recip returns 1 / x. If x contains 0 the result is Entire.
@@ -203,14 +225,21 @@ func (x Interval) Min(y Interval) Interval {
 	return Interval{math.Min(x.Lo, y.Lo), math.Min(x.Hi, y.Hi)}
 }
 
-// IntPow returns x^n for an integer n ≥ 0. The power is monotone on each
-// endpoint's side, so it is evaluated at the endpoints by repeated squaring
-// in interval arithmetic.
+// IntPow returns x^n for an integer n. The power is monotone on each side
+// of 0, so it is evaluated at the endpoints by repeated squaring in interval
+// arithmetic. x^0 is 1 (also for x containing 0 or ∞); for n < 0 the result
+// is 1/x^|n|, Entire if x contains 0.
 func (x Interval) IntPow(n int) Interval {
-	if n <= 0 {
+	switch {
+	case n == 0:
 		return Point(1)
-	}
-	if n%2 == 0 {
+	case n < 0:
+		if n == math.MinInt {
+			// |n| is not an int; x^n = (x^(n/2))².
+			return x.IntPow(n / 2).Sqr()
+		}
+		return x.IntPow(-n).Recip()
+	case n%2 == 0:
 		a := x.Abs()
 		return Interval{powPoint(a.Lo, n).Lo, powPoint(a.Hi, n).Hi}
 	}

@@ -17,9 +17,10 @@ import "math"
 //	a = s² + e exactly, e = RN(a - s·s), s = RN(√a), for a ≥ 2⁻⁹⁶⁸ (same source, 4.7)
 //
 // so that sums, products and square roots round exactly as true directed
-// rounding would. Quotients step one ulp outward. Overflow to ±Inf is
-// handled: a sum or product of finite numbers that rounds to +Inf exceeds
-// MaxFloat64, so MaxFloat64 is a valid lower bound.
+// rounding would; quotients do too, by their exact remainder (see divUp).
+// Below those ranges (underflow) results step one ulp outward. Overflow to
+// ±Inf is handled: a sum or product of finite numbers that rounds to +Inf
+// exceeds MaxFloat64, so MaxFloat64 is a valid lower bound.
 
 // nextUp returns the least float64 greater than x (x itself for +Inf, NaN).
 func nextUp(x float64) float64 {
@@ -106,12 +107,23 @@ func mulDown(a, b float64) float64 {
 }
 
 // divUp and divDown return outward bounds on a / b for b ≠ 0; 0/b is 0.
-// ±Inf/±Inf has no limit: the bound is the infinity on the bound's side.
+// The remainder a - q·b of q = RN(a/b) is exact (one fused multiply-add)
+// when |a|, |q| ≥ 2⁻⁹⁶⁸ (Muller et al., Handbook of Floating-Point
+// Arithmetic, 2nd ed. 2018, 4.4.3 — from memory); its sign relative to b
+// tells on which side of a/b q lies. ±Inf/±Inf has no limit: the bound is
+// the infinity on the bound's side.
 func divUp(a, b float64) float64 {
 	if a == 0 {
 		return 0
 	}
 	q := a / b
+	if math.Abs(a) >= minExact && math.Abs(q) >= minExact && math.Abs(q) <= math.MaxFloat64 {
+		// a/b - q = rem/b ≤ 0?
+		if rem := math.FMA(-q, b, a); rem == 0 || (rem < 0) != (b < 0) {
+			return q
+		}
+		return nextUp(q)
+	}
 	switch {
 	case q != q:
 		return math.Inf(1)
@@ -126,6 +138,13 @@ func divDown(a, b float64) float64 {
 		return 0
 	}
 	q := a / b
+	if math.Abs(a) >= minExact && math.Abs(q) >= minExact && math.Abs(q) <= math.MaxFloat64 {
+		// a/b - q = rem/b ≥ 0?
+		if rem := math.FMA(-q, b, a); rem == 0 || (rem < 0) == (b < 0) {
+			return q
+		}
+		return nextDown(q)
+	}
 	switch {
 	case q != q:
 		return math.Inf(-1)
