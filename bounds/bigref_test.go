@@ -348,8 +348,10 @@ func refErfTaylor(x float64) *big.Float {
 //	erf x = (2/√π) e^(-x²) Σ 2^n x^(2n+1) / (1·3·5···(2n+1)),
 //
 // an independent check on refErfTaylor.
-func refErfPositive(x float64) *big.Float {
-	wp := uint(workPrec + 32)
+func refErfPositive(x float64) *big.Float { return refErfSeries(x, workPrec+32) }
+
+// refErfSeries is refErfPositive at working precision wp.
+func refErfSeries(x float64, wp uint) *big.Float {
 	X := bf(x, wp)
 	twoX2 := newF(wp).Mul(X, X)
 	twoX2.SetMantExp(twoX2, 1)
@@ -406,28 +408,33 @@ func refErfcCF(x float64) *big.Float {
 	return prev.Quo(prev, refSqrtP())
 }
 
-// refErfc returns erfc x: 1 - erf x (DLMF 7.6.2) for |x| < 3, the
-// continued fraction for x ≥ 3 and 2 - erfc(-x) for x ≤ -3.
+// erfcSwitch is where refErfc and refErf change from the series to the
+// continued fraction, which converges fast from there on.
+const erfcSwitch = 7
+
+// refErfc returns erfc x: 1 - erf x (DLMF 7.6.2, with extra bits for the
+// cancellation, erfc x ≈ e^(-x²)) for |x| < 7, the continued fraction for
+// x ≥ 7 and 2 - erfc(-x) for x ≤ -7.
 func refErfc(x float64) *big.Float {
 	switch {
-	case x >= 3:
+	case x >= erfcSwitch:
 		return refErfcCF(x)
-	case x <= -3:
+	case x <= -erfcSwitch:
 		e := refErfcCF(-x)
 		return e.Sub(bint(2, e.Prec()), e)
 	}
-	e := refErfPositive(x)
+	e := refErfSeries(x, uint(workPrec+32+1.5*x*x))
 	return e.Sub(bint(1, e.Prec()), e)
 }
 
-// refErf returns erf x: the series DLMF 7.6.2 for |x| < 3, 1 - erfc x
+// refErf returns erf x: the series DLMF 7.6.2 for |x| < 7, 1 - erfc x
 // beyond.
 func refErf(x float64) *big.Float {
 	switch {
-	case x >= 3:
+	case x >= erfcSwitch:
 		e := refErfcCF(x)
 		return e.Sub(bint(1, e.Prec()), e)
-	case x <= -3:
+	case x <= -erfcSwitch:
 		e := refErfcCF(-x)
 		return e.Sub(e, bint(1, e.Prec()))
 	}
