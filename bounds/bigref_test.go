@@ -225,9 +225,12 @@ func refLog1p(x *big.Float) *big.Float {
 
 // refSinCos returns sin x and cos x. The argument is reduced exactly enough
 // by π/2 at piPrec bits: x = kπ/2 + r, |r| ≤ π/4.
-func refSinCos(x float64) (sin, cos *big.Float) {
+func refSinCos(x float64) (sin, cos *big.Float) { return refSinCosBig(bf(x, piPrec)) }
+
+// refSinCosBig is refSinCos for |x| < 2^1024 given in high precision.
+func refSinCosBig(x *big.Float) (sin, cos *big.Float) {
 	wp := uint(workPrec)
-	X := bf(x, piPrec)
+	X := newF(piPrec).Set(x)
 	halfPi := newF(piPrec).Set(refPi())
 	halfPi.SetMantExp(halfPi, -1)
 	q := newF(piPrec).Quo(X, halfPi)

@@ -24,6 +24,8 @@ type elemCase struct {
 	// directly (known defects it works around); their error is reported
 	// apart.
 	libmSkip func(float64) bool
+	// halfPiCrit adds the floats nearest to kπ/2 inside wide intervals.
+	halfPiCrit bool
 }
 
 // neighbours returns x and the k floats on either side of it.
@@ -125,8 +127,8 @@ func elemCases() []elemCase {
 			name: "Log", iv: Log, libm: math.Log, ref: posOnly(refOf(refLog)),
 			// Go issue 56600: amd64 math.Log ignores subnormal scaling.
 			libmSkip: func(x float64) bool { return x < 0x1p-1022 },
-			gen:   mix(posLogu(-1074, 1024), posLogu(-3, 3), func(r *rand.Rand) float64 { return randNear(r, 1, 1000) }),
-			edges: neighbours(3, 1, 5e-324, 0x1p-1022, math.MaxFloat64, 0.7071067811865476, 2, 0.5),
+			gen:      mix(posLogu(-1074, 1024), posLogu(-3, 3), func(r *rand.Rand) float64 { return randNear(r, 1, 1000) }),
+			edges:    neighbours(3, 1, 5e-324, 0x1p-1022, math.MaxFloat64, 0.7071067811865476, 2, 0.5),
 		},
 		{
 			name: "Log1p", iv: Log1p, libm: math.Log1p, ref: aboveMinus1(refOf(refLog1p)),
@@ -139,14 +141,14 @@ func elemCases() []elemCase {
 			gen: mix(uni(-10, 10), logu(-60, 1023), logu(0, 40), nearHalfPi(30), nearHalfPi(1000), logu(28, 31)),
 			edges: append(symmetric(neighbours(2, 0, 5e-324, 1e-300, math.Pi/2, math.Pi, 3*math.Pi/2, 2*math.Pi, 1e5, 1e15, 1e22, 1e300,
 				0x1p29, 0x1p30, math.MaxFloat64, trigWorst)...), neighbours(1, 7.853981633974483e-01, 355, 103993)...),
-			crit: []float64{},
+			halfPiCrit: true,
 		},
 		{
 			name: "Cos", iv: Cos, libm: math.Cos, ref: func(x float64) *big.Float { _, c := refSinCos(x); return c },
 			gen: mix(uni(-10, 10), logu(-60, 1023), logu(0, 40), nearHalfPi(30), nearHalfPi(1000), logu(28, 31)),
 			edges: append(symmetric(neighbours(2, 0, 5e-324, 1e-300, math.Pi/2, math.Pi, 3*math.Pi/2, 2*math.Pi, 1e5, 1e15, 1e22, 1e300,
 				0x1p29, 0x1p30, math.MaxFloat64, trigWorst)...), neighbours(1, 7.853981633974483e-01, 355, 103993)...),
-			crit: []float64{},
+			halfPiCrit: true,
 		},
 		{
 			name: "Sinh", iv: Sinh, libm: math.Sinh, ref: refOf(refSinh),
@@ -299,78 +301,88 @@ func checkEnclosure(t *testing.T, what string, z Interval, ref *big.Float) bool 
 // of the Go math function each rests on.
 func TestElementaryContainment(t *testing.T) {
 	t.Parallel()
+	for i, c := range elemCases() {
+		t.Run(c.name, func(t *testing.T) {
+			t.Parallel()
+			runContainment(t, c, 100+uint64(i))
+		})
+	}
+}
+
+// runContainment runs the containment checks of one case and reports the
+// measured libm error and the tightness of point enclosures.
+func runContainment(t *testing.T, c elemCase, seed uint64) {
 	points, wide := 1500, 250
 	if testing.Short() {
 		points, wide = 300, 50
 	}
-	for i, c := range elemCases() {
-		t.Run(c.name, func(t *testing.T) {
-			t.Parallel()
-			r := rand.New(rand.NewPCG(100, uint64(i)))
-			var st libmStats
-			xs := slices.Clone(c.edges)
-			for j := 0; j < points; j++ {
-				xs = append(xs, c.gen(r))
+	r := rand.New(rand.NewPCG(seed, 1))
+	var st libmStats
+	xs := slices.Clone(c.edges)
+	for j := 0; j < points; j++ {
+		xs = append(xs, c.gen(r))
+	}
+	for _, x := range xs {
+		if math.IsInf(x, 0) {
+			checkValid(t, fmt.Sprintf("%s(%v)", c.name, Point(x)), c.iv(Point(x)))
+			continue
+		}
+		ref := c.ref(x)
+		if ref == nil {
+			continue
+		}
+		z := c.iv(Point(x))
+		if checkEnclosure(t, fmt.Sprintf("%s(%v)", c.name, Point(x)), z, ref) {
+			if z.IsFinite() && z.Mag() > 0x1p-1000 {
+				st.widths = append(st.widths, z.RelWidth())
 			}
-			for _, x := range xs {
-				if math.IsInf(x, 0) {
-					checkValid(t, fmt.Sprintf("%s(%v)", c.name, Point(x)), c.iv(Point(x)))
-					continue
-				}
-				ref := c.ref(x)
-				if ref == nil {
-					continue
-				}
-				z := c.iv(Point(x))
-				if checkEnclosure(t, fmt.Sprintf("%s(%v)", c.name, Point(x)), z, ref) {
-					if z.IsFinite() && z.Mag() > 0x1p-1000 {
-						st.widths = append(st.widths, z.RelWidth())
-					}
-				}
-				st.add(c, x, ref)
+		}
+		st.add(c, x, ref)
+	}
+	for j := 0; j < wide; j++ {
+		a, b := c.gen(r), c.gen(r)
+		if r.IntN(2) == 0 {
+			b = a + randLog(r, -40, 3)
+		}
+		x := Span(a, b)
+		z := c.iv(x)
+		ps := samplePoints(r, x, 6)
+		for _, p := range c.crit {
+			if x.Contains(p) {
+				ps = append(ps, p)
 			}
-			for j := 0; j < wide; j++ {
-				a, b := c.gen(r), c.gen(r)
-				if r.IntN(2) == 0 {
-					b = a + randLog(r, -40, 3)
-				}
-				x := Span(a, b)
-				z := c.iv(x)
-				ps := samplePoints(r, x, 6)
-				for _, p := range c.crit {
-					if x.Contains(p) {
-						ps = append(ps, p)
-					}
-				}
-				if c.name == "Sin" || c.name == "Cos" {
-					ps = append(ps, halfPiMultiplesIn(x, 8)...)
-				}
-				for _, p := range ps {
-					if ref := c.ref(p); ref != nil {
-						checkEnclosure(t, fmt.Sprintf("%s(%v) at %g", c.name, x, p), z, ref)
-					}
-				}
+		}
+		if c.halfPiCrit {
+			ps = append(ps, halfPiMultiplesIn(x, 8)...)
+		}
+		for _, p := range ps {
+			if ref := c.ref(p); ref != nil {
+				checkEnclosure(t, fmt.Sprintf("%s(%v) at %g", c.name, x, p), z, ref)
 			}
-			slices.Sort(st.widths)
-			med, mx := 0.0, 0.0
-			if n := len(st.widths); n > 0 {
-				med, mx = st.widths[n/2], st.widths[n-1]
-			}
-			t.Logf("%-6s math: max %.3f ulp (at %g), subnormal results max %.3g units of 2^-1074, early ±Inf %d (from %g), "+
-				"worked-around inputs %d (max %.3g ulp); sin/cos reduction excess: %.3g·|x| below 2^29, %.3g abs above; "+
-				"point enclosures: median rel width %.3g, max %.3g",
-				c.name, st.maxUlps, st.argMaxUlps, st.maxSubUnits, st.earlyInf, st.earlyInfArg, st.skipped, st.skippedUlps,
-				st.maxCWRel, st.maxPHAbs, med, mx)
-			if st.maxUlps > libmUlps {
-				t.Errorf("math.%s: %.3f ulp at %g, above the assumed %d", c.name, st.maxUlps, st.argMaxUlps, libmUlps)
-			}
-			if st.maxSubUnits > 0x1p14 {
-				t.Errorf("math.%s: subnormal error %.3g units, above 2^14", c.name, st.maxSubUnits)
-			}
-			if st.maxCWRel > trigRelCW || st.maxPHAbs > trigAbsPH {
-				t.Errorf("math.%s: reduction error %.3g·|x|, %.3g, above the allowance", c.name, st.maxCWRel, st.maxPHAbs)
-			}
-		})
+		}
+	}
+	slices.Sort(st.widths)
+	med, mx := 0.0, 0.0
+	if n := len(st.widths); n > 0 {
+		med, mx = st.widths[n/2], st.widths[n-1]
+	}
+	if c.libm == nil {
+		t.Logf("%-9s point enclosures: median rel width %.3g, max %.3g", c.name, med, mx)
+		return
+	}
+	t.Logf("%-6s math: max %.3f ulp (at %g), subnormal results max %.3g units of 2^-1074, early ±Inf %d (from %g), "+
+		"worked-around inputs %d (max %.3g ulp); sin/cos reduction excess: %.3g·|x| below 2^29, %.3g abs above; "+
+		"point enclosures: median rel width %.3g, max %.3g",
+		c.name, st.maxUlps, st.argMaxUlps, st.maxSubUnits, st.earlyInf, st.earlyInfArg, st.skipped, st.skippedUlps,
+		st.maxCWRel, st.maxPHAbs, med, mx)
+	if st.maxUlps > libmUlps {
+		t.Errorf("math.%s: %.3f ulp at %g, above the assumed %d", c.name, st.maxUlps, st.argMaxUlps, libmUlps)
+	}
+	if st.maxSubUnits > 0x1p14 {
+		t.Errorf("math.%s: subnormal error %.3g units, above 2^14", c.name, st.maxSubUnits)
+	}
+	if st.maxCWRel > trigRelCW || st.maxPHAbs > trigAbsPH {
+		t.Errorf("math.%s: reduction error %.3g·|x|, %.3g, above the allowance", c.name, st.maxCWRel, st.maxPHAbs)
 	}
 }
 
@@ -399,4 +411,129 @@ func halfPiMultiplesIn(x Interval, n int) []float64 {
 		k.Add(k, big.NewInt(1))
 	}
 	return out
+}
+
+// TestConstants checks the interval constants against math/big values.
+func TestConstants(t *testing.T) {
+	t.Parallel()
+	pi := refPi()
+	two := func(x *big.Float) *big.Float { y := newF(workPrec).Set(x); return y.SetMantExp(y, 1) }
+	sqrt := func(x *big.Float) *big.Float { return newF(workPrec).Sqrt(x) }
+	e := refExp(bint(1, 64))
+	tests := []struct {
+		name string
+		got  Interval
+		want *big.Float
+	}{
+		{"Pi", Pi, pi},
+		{"TwoPi", TwoPi, two(pi)},
+		{"SqrtPi", SqrtPi, sqrt(pi)},
+		{"SqrtTwoPi", SqrtTwoPi, sqrt(two(pi))},
+		{"e", Interval{eLo, eHi}, e},
+		{"e²", Interval{e2Lo, e2Hi}, refExp(bint(2, 64))},
+		{"ln 2", Interval{ln2Lo, ln2Hi}, refLn2()},
+	}
+	for _, tt := range tests {
+		if !bigContains(tt.got.Lo, tt.got.Hi, tt.want) {
+			t.Errorf("%s = %v, want ∋ %s", tt.name, tt.got, tt.want.Text('g', 25))
+		}
+		if tt.got.RelWidth() > 0x1p-50 {
+			t.Errorf("%s = %v: relative width %g, want ≤ 2^-50", tt.name, tt.got, tt.got.RelWidth())
+		}
+	}
+}
+
+// TestElementarySpecial checks infinite, empty-domain and overflowing
+// arguments: the results are the documented ones and never NaN.
+func TestElementarySpecial(t *testing.T) {
+	t.Parallel()
+	max := math.MaxFloat64
+	ent := Entire()
+	tests := []struct {
+		name string
+		got  Interval
+		want Interval
+	}{
+		{"Exp(1e300)", Exp(Point(1e300)), Interval{max, inf}},
+		{"Exp(710)", Exp(Point(710)), Interval{max, inf}},
+		{"Exp(Entire)", Exp(ent), Interval{0, inf}},
+		{"Expm1(Entire)", Expm1(ent), Interval{-1, inf}},
+		{"Log([-1,0])", Log(Interval{-1, 0}), ent},
+		{"Log([0,1]).Lo", Interval{Log(Interval{0, 1}).Lo, 0}, Interval{-inf, 0}},
+		{"Log1p([-3,-1])", Log1p(Interval{-3, -1}), ent},
+		{"Sqrt([-4,4])", Sqrt(Interval{-4, 4}), Interval{0, 2}},
+		{"Sqrt([-4,-1])", Sqrt(Interval{-4, -1}), Point(0)},
+		{"Sqrt([0,Inf])", Sqrt(Interval{0, inf}), Interval{0, inf}},
+		{"Sin(Entire)", Sin(ent), Interval{-1, 1}},
+		{"Cos([-Inf,0])", Cos(Interval{-inf, 0}), Interval{-1, 1}},
+		{"Sin([0,7])", Sin(Interval{0, 7}), Interval{-1, 1}},
+		{"Cos(Point(Inf))", Cos(Point(inf)), Interval{-1, 1}},
+		{"Sinh(Entire)", Sinh(ent), ent},
+		{"Sinh(1e300)", Sinh(Point(1e300)), Interval{nextDown(max), inf}},
+		{"Cosh(Entire)", Cosh(ent), Interval{1, inf}},
+		{"Cosh(-1e300)", Cosh(Point(-1e300)), Interval{max, inf}},
+		{"Tanh(Entire)", Tanh(ent), Interval{-1, 1}},
+		{"Sech(Entire).Hi", Interval{0, Sech(ent).Hi}, Interval{0, 1}},
+		{"Erf(Entire)", Erf(ent), Interval{-1, 1}},
+		{"Erfc(Entire)", Erfc(ent), Interval{0, 2}},
+		{"Pow([0,0],2)", Pow(Point(0), 2), Point(0)},
+		{"Pow([-3,0],-2)", Pow(Interval{-3, 0}, -2), Interval{max, inf}},
+		{"Pow([0,4],-0.5)", Pow(Interval{0, 4}, -0.5), Interval{0.5, inf}},
+		{"Pow([0,4],0.5)", Pow(Interval{0, 4}, 0.5), Interval{0, 2}},
+		{"Pow([-1,4],1.5)", Pow(Interval{-1, 4}, 1.5), Interval{0, 8}},
+		{"Pow([2,2],-3)", Pow(Point(2), -3), Point(0.125)},
+		{"Pow(x,0)", Pow(Interval{-1, 5}, 0), Point(1)},
+		{"Pow(x,NaN)", Pow(Interval{1, 5}, math.NaN()), ent},
+	}
+	for _, tt := range tests {
+		if tt.got != tt.want {
+			t.Errorf("%s = %v, want %v", tt.name, tt.got, tt.want)
+		}
+	}
+	if z := Exp(Point(-inf)); z.Lo != 0 || z.Hi > 0x1p-1059 {
+		t.Errorf("Exp(-Inf) = %v, want [0, tiny]", z)
+	}
+	if z := Sech(Point(inf)); z.Lo != 0 || z.Hi > 0x1p-1058 {
+		t.Errorf("Sech(Inf) = %v, want [0, tiny]", z)
+	}
+}
+
+// TestPow checks Pow against e^(p ln x) in math/big on random points and
+// intervals, for integer, half-integer and general exponents.
+func TestPow(t *testing.T) {
+	t.Parallel()
+	r := rand.New(rand.NewPCG(13, 14))
+	n := 800
+	if testing.Short() {
+		n = 150
+	}
+	var widths []float64
+	for i := 0; i < n; i++ {
+		var p float64
+		switch r.IntN(3) {
+		case 0:
+			p = float64(r.IntN(41) - 20)
+		case 1:
+			p = float64(r.IntN(41)-20) + 0.5
+		default:
+			p = randUniform(r, -20, 20)
+		}
+		a := math.Abs(randLog(r, -30, 30))
+		if math.Abs(p*math.Log(a)) > 700 {
+			continue
+		}
+		x := Point(a)
+		if r.IntN(3) == 0 {
+			x = Span(a, a*(1+randUniform(r, 0, 0.5)))
+		}
+		z := Pow(x, p)
+		if x.Lo == x.Hi && p != 0 {
+			widths = append(widths, z.RelWidth())
+		}
+		for _, v := range samplePoints(r, x, 3) {
+			checkEnclosure(t, fmt.Sprintf("Pow(%v, %g) at %g", x, p, v), z, refPow(v, p))
+		}
+	}
+	slices.Sort(widths)
+	t.Logf("Pow on points: median relative width %.3g, max %.3g", widths[len(widths)/2], widths[len(widths)-1])
 }
