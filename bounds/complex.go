@@ -81,7 +81,7 @@ const (
 
 // hypotUp returns an upper bound on √(a² + b²) for a, b ≥ 0.
 func hypotUp(a, b float64) float64 {
-	m := math.Max(a, b)
+	m := fmax(a, b)
 	switch {
 	case math.IsInf(m, 1):
 		return m
@@ -95,7 +95,7 @@ func hypotUp(a, b float64) float64 {
 
 // hypotDown returns a lower bound on √(a² + b²) for a, b ≥ 0.
 func hypotDown(a, b float64) float64 {
-	m := math.Max(a, b)
+	m := fmax(a, b)
 	switch {
 	case math.IsInf(m, 1):
 		return m
@@ -120,12 +120,9 @@ func (z Complex) Inflate(r float64) Complex {
 	}
 }
 
-// Cis returns e^{iθ} = cos θ + i sin θ. A point θ costs one call to
-// math.Sincos.
+// Cis returns e^{iθ} = cos θ + i sin θ. A point or thin θ costs one call
+// to math.Sincos (see sinCos).
 func Cis(theta Interval) Complex {
-	if theta.Lo == theta.Hi {
-		s, c := sincosPoint(theta.Lo)
-		return Complex{c, s}
-	}
-	return Complex{Cos(theta), Sin(theta)}
+	s, c := sinCos(theta)
+	return Complex{c, s}
 }

@@ -43,7 +43,7 @@ func expBounds(v float64) (lo, hi float64) {
 	switch {
 	case v <= expDirect:
 		r := math.Exp(v)
-		return math.Max(0, widenDown(r)), widenUp(r)
+		return fmax(0, widenDown(r)), widenUp(r)
 	case v > 711: // e^711 > 2·MaxFloat64
 		return math.MaxFloat64, math.Inf(1)
 	}
@@ -92,7 +92,7 @@ func Expm1(x Interval) Interval {
 func expm1Bounds(v float64) (lo, hi float64) {
 	if v <= expDirect {
 		r := math.Expm1(v)
-		return math.Max(-1, widenDown(r)), widenUp(r)
+		return fmax(-1, widenDown(r)), widenUp(r)
 	}
 	// e^v ≥ e^709 has an ulp far above 1: one step down covers the -1.
 	lo, hi = expBounds(v)
@@ -167,7 +167,7 @@ func Pow(x Interval, p float64) Interval {
 		}
 		return Interval{math.MaxFloat64, math.Inf(1)}
 	}
-	x.Lo = math.Max(x.Lo, 0)
+	x.Lo = fmax(x.Lo, 0)
 	const maxIntPow = 1 << 30
 	switch {
 	case p == math.Trunc(p) && math.Abs(p) <= maxIntPow:
@@ -226,7 +226,7 @@ const (
 func trigAbsErr(v float64) float64 {
 	a := math.Abs(v)
 	if a < trigThreshold {
-		return a*trigRelCW + libmAbs
+		return a * trigRelCW
 	}
 	return trigAbsPH
 }
@@ -234,7 +234,8 @@ func trigAbsErr(v float64) float64 {
 // trigWiden encloses a value computed as r by math.Sin or math.Cos at a
 // point whose reduction error is at most e.
 func trigWiden(r, e float64) Interval {
-	return Interval{math.Max(-1, nextDown(widenDown(r)-e)), math.Min(1, nextUp(widenUp(r)+e))}
+	e += libmAbs
+	return Interval{fmax(-1, widenDownBy(r, e)), fmin(1, widenUpBy(r, e))}
 }
 
 var unitInterval = Interval{-1, 1}
@@ -274,42 +275,93 @@ func mayHitPhase(x Interval, phase float64) bool {
 	return math.Ceil(u.Lo) <= math.Floor(v.Hi)
 }
 
-// Sin returns sin x. The extrema ±1 are included where x may contain
-// π/2 + 2πk or -π/2 + 2πk.
-func Sin(x Interval) Interval {
-	if !x.IsFinite() || x.Hi-x.Lo >= 6.28 {
-		return unitInterval
+// sinCos returns enclosures of {sin v} and {cos v} over v in x.
+//
+// Intervals of radius up to 2⁻²⁰ (phases computed in interval arithmetic)
+// take one call to math.Sincos at the midpoint (see sinCosThin). Wider ones
+// are enclosed by the hull of their values at the endpoints, plus ±1
+// where x may contain an extremum. For x narrower than 3 (< π) the
+// extrema of sin are the zeros of cos and vice versa, at most one of each
+// in x; if the enclosures of cos at both endpoints have the same strict
+// sign, cos has no zero in x and sin is monotone on it. Otherwise the
+// extrema are located by mayHitPhase.
+func sinCos(x Interval) (sin, cos Interval) {
+	if x.Lo == x.Hi {
+		return sincosPoint(x.Lo)
 	}
+	if !x.IsFinite() || x.Hi-x.Lo >= 6.28 {
+		return unitInterval, unitInterval
+	}
+	m := x.Mid()
+	if r := fmax(addUp(x.Hi, -m), addUp(m, -x.Lo)); r <= thinRadius {
+		return sinCosThin(m, r)
+	}
+	s1, c1 := sincosPoint(x.Lo)
+	s2, c2 := sincosPoint(x.Hi)
+	sin, cos = s1.Hull(s2), c1.Hull(c2)
+	thin := x.Width() <= 3
+	if !thin || !sameStrictSign(c1, c2) {
+		if mayHitPhase(x, 0.25) {
+			sin.Hi = 1
+		}
+		if mayHitPhase(x, 0.75) {
+			sin.Lo = -1
+		}
+	}
+	if !thin || !sameStrictSign(s1, s2) {
+		if mayHitPhase(x, 0) {
+			cos.Hi = 1
+		}
+		if mayHitPhase(x, 0.5) {
+			cos.Lo = -1
+		}
+	}
+	return sin, cos
+}
+
+// thinRadius is the largest radius of an interval for which sinCos uses
+// the Taylor form around the midpoint.
+const thinRadius = 0x1p-20
+
+// sinCosThin encloses sin and cos over [m-r, m+r] with one call to
+// math.Sincos, by Taylor's theorem with the Lagrange remainder:
+//
+//	sin(m+δ) = sin m + δ cos m - (δ²/2) sin ξ
+//	cos(m+δ) = cos m - δ sin m - (δ²/2) cos ξ,   |δ| ≤ r
+//
+// as tight as the endpoint values to first order.
+func sinCosThin(m, r float64) (sin, cos Interval) {
+	s, c := sincosPoint(m)
+	q := mulUp(mulUp(r, r), 0.5)
+	es := addUp(mulUp(c.Mag(), r), q)
+	ec := addUp(mulUp(s.Mag(), r), q)
+	sin = Interval{fmax(-1, addDown(s.Lo, -es)), fmin(1, addUp(s.Hi, es))}
+	cos = Interval{fmax(-1, addDown(c.Lo, -ec)), fmin(1, addUp(c.Hi, ec))}
+	return sin, cos
+}
+
+// sameStrictSign reports whether a and b lie both in (0, ∞) or both in
+// (-∞, 0).
+func sameStrictSign(a, b Interval) bool {
+	return a.Lo > 0 && b.Lo > 0 || a.Hi < 0 && b.Hi < 0
+}
+
+// Sin returns sin x (see sinCos for the method).
+func Sin(x Interval) Interval {
 	if x.Lo == x.Hi {
 		return sinPoint(x.Lo)
 	}
-	r := sinPoint(x.Lo).Hull(sinPoint(x.Hi))
-	if mayHitPhase(x, 0.25) {
-		r.Hi = 1
-	}
-	if mayHitPhase(x, 0.75) {
-		r.Lo = -1
-	}
-	return r
+	s, _ := sinCos(x)
+	return s
 }
 
-// Cos returns cos x. The extrema ±1 are included where x may contain
-// 2πk or π + 2πk.
+// Cos returns cos x (see sinCos for the method).
 func Cos(x Interval) Interval {
-	if !x.IsFinite() || x.Hi-x.Lo >= 6.28 {
-		return unitInterval
-	}
 	if x.Lo == x.Hi {
 		return cosPoint(x.Lo)
 	}
-	r := cosPoint(x.Lo).Hull(cosPoint(x.Hi))
-	if mayHitPhase(x, 0) {
-		r.Hi = 1
-	}
-	if mayHitPhase(x, 0.5) {
-		r.Lo = -1
-	}
-	return r
+	_, c := sinCos(x)
+	return c
 }
 
 // hypDirect is the largest |v| for which math.Sinh and math.Cosh are used
@@ -339,7 +391,7 @@ func sinhBounds(v float64) (lo, hi float64) {
 func coshBounds(a float64) (lo, hi float64) {
 	if a <= hypDirect {
 		r := math.Cosh(a)
-		return math.Max(1, widenDown(r)), widenUp(r)
+		return fmax(1, widenDown(r)), widenUp(r)
 	}
 	lo, hi = halfExpBounds(a)
 	return lo, nextUp(hi)
@@ -351,11 +403,11 @@ func coshBounds(a float64) (lo, hi float64) {
 func sechBounds(a float64) (lo, hi float64) {
 	if a <= hypDirect {
 		clo, chi := coshBounds(a)
-		return divDown(1, chi), math.Min(1, divUp(1, clo))
+		return divDown(1, chi), fmin(1, divUp(1, clo))
 	}
 	lo, hi = expBounds(-a)
 	// 2·lo and 2·hi are exact; one step down covers the factor 1/(1+e^(-2a)).
-	return math.Max(0, nextDown(2*lo)), 2 * hi
+	return fmax(0, nextDown(2*lo)), 2 * hi
 }
 
 // Sinh returns sinh x (increasing). Where sinh x exceeds MaxFloat64 the
@@ -376,7 +428,7 @@ func Cosh(x Interval) Interval {
 
 // Tanh returns tanh x (increasing).
 func Tanh(x Interval) Interval {
-	return Interval{math.Max(-1, widenDown(math.Tanh(x.Lo))), math.Min(1, widenUp(math.Tanh(x.Hi)))}
+	return Interval{fmax(-1, widenDown(math.Tanh(x.Lo))), fmin(1, widenUp(math.Tanh(x.Hi)))}
 }
 
 // Sech returns sech x = 1/cosh x (even, decreasing in |x|, 1 at 0).
@@ -389,10 +441,10 @@ func Sech(x Interval) Interval {
 
 // Erfc returns the complementary error function (decreasing).
 func Erfc(x Interval) Interval {
-	return Interval{math.Max(0, widenDown(math.Erfc(x.Hi))), math.Min(2, widenUp(math.Erfc(x.Lo)))}
+	return Interval{fmax(0, widenDown(math.Erfc(x.Hi))), fmin(2, widenUp(math.Erfc(x.Lo)))}
 }
 
 // Erf returns the error function (increasing).
 func Erf(x Interval) Interval {
-	return Interval{math.Max(-1, widenDown(math.Erf(x.Lo))), math.Min(1, widenUp(math.Erf(x.Hi)))}
+	return Interval{fmax(-1, widenDown(math.Erf(x.Lo))), fmin(1, widenUp(math.Erf(x.Hi)))}
 }

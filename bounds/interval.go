@@ -77,14 +77,14 @@ func (x Interval) Mid() float64 {
 func (x Interval) Width() float64 { return addUp(x.Hi, -x.Lo) }
 
 // Mag returns max |v| over v in x (the magnitude), an exact value.
-func (x Interval) Mag() float64 { return math.Max(math.Abs(x.Lo), math.Abs(x.Hi)) }
+func (x Interval) Mag() float64 { return fmax(math.Abs(x.Lo), math.Abs(x.Hi)) }
 
 // Mig returns min |v| over v in x (the mignitude), an exact value.
 func (x Interval) Mig() float64 {
 	if x.ContainsZero() {
 		return 0
 	}
-	return math.Min(math.Abs(x.Lo), math.Abs(x.Hi))
+	return fmin(math.Abs(x.Lo), math.Abs(x.Hi))
 }
 
 // RelWidth returns an upper bound on the width of x relative to its
@@ -102,12 +102,12 @@ func (x Interval) RelWidth() float64 {
 
 // Hull returns the smallest interval containing x and y.
 func (x Interval) Hull(y Interval) Interval {
-	return Interval{math.Min(x.Lo, y.Lo), math.Max(x.Hi, y.Hi)}
+	return Interval{fmin(x.Lo, y.Lo), fmax(x.Hi, y.Hi)}
 }
 
 // Intersect returns x ∩ y and whether it is non-empty.
 func (x Interval) Intersect(y Interval) (Interval, bool) {
-	z := Interval{math.Max(x.Lo, y.Lo), math.Min(x.Hi, y.Hi)}
+	z := Interval{fmax(x.Lo, y.Lo), fmin(x.Hi, y.Hi)}
 	return z, z.Lo <= z.Hi
 }
 
@@ -122,7 +122,7 @@ func (x Interval) Abs() Interval {
 	case x.Hi <= 0:
 		return x.Neg()
 	default:
-		return Interval{0, math.Max(-x.Lo, x.Hi)}
+		return Interval{0, fmax(-x.Lo, x.Hi)}
 	}
 }
 
@@ -142,24 +142,40 @@ func (x Interval) AddFloat(v float64) Interval {
 }
 
 // Mul returns x * y. A zero endpoint times an infinite one counts as zero,
-// as in IEEE 1788 interval arithmetic, so no NaN arises.
+// as in IEEE 1788 interval arithmetic, so no NaN arises. The endpoints are
+// chosen by the signs of x and y (two products, four when both contain 0).
 func (x Interval) Mul(y Interval) Interval {
-	// Fast paths for the common sign patterns.
 	switch {
-	case x.Lo >= 0 && y.Lo >= 0:
-		return Interval{mulDown(x.Lo, y.Lo), mulUp(x.Hi, y.Hi)}
-	case x.Hi <= 0 && y.Hi <= 0:
-		return Interval{mulDown(x.Hi, y.Hi), mulUp(x.Lo, y.Lo)}
-	case x.Lo >= 0 && y.Hi <= 0:
-		return Interval{mulDown(x.Hi, y.Lo), mulUp(x.Lo, y.Hi)}
-	case x.Hi <= 0 && y.Lo >= 0:
-		return Interval{mulDown(x.Lo, y.Hi), mulUp(x.Hi, y.Lo)}
+	case x.Lo >= 0:
+		switch {
+		case y.Lo >= 0:
+			return Interval{mulDown(x.Lo, y.Lo), mulUp(x.Hi, y.Hi)}
+		case y.Hi <= 0:
+			return Interval{mulDown(x.Hi, y.Lo), mulUp(x.Lo, y.Hi)}
+		default:
+			return Interval{mulDown(x.Hi, y.Lo), mulUp(x.Hi, y.Hi)}
+		}
+	case x.Hi <= 0:
+		switch {
+		case y.Lo >= 0:
+			return Interval{mulDown(x.Lo, y.Hi), mulUp(x.Hi, y.Lo)}
+		case y.Hi <= 0:
+			return Interval{mulDown(x.Hi, y.Hi), mulUp(x.Lo, y.Lo)}
+		default:
+			return Interval{mulDown(x.Lo, y.Hi), mulUp(x.Lo, y.Lo)}
+		}
 	}
-	lo := math.Min(math.Min(mulDown(x.Lo, y.Lo), mulDown(x.Lo, y.Hi)),
-		math.Min(mulDown(x.Hi, y.Lo), mulDown(x.Hi, y.Hi)))
-	hi := math.Max(math.Max(mulUp(x.Lo, y.Lo), mulUp(x.Lo, y.Hi)),
-		math.Max(mulUp(x.Hi, y.Lo), mulUp(x.Hi, y.Hi)))
-	return Interval{lo, hi}
+	// x contains 0 in its interior.
+	switch {
+	case y.Lo >= 0:
+		return Interval{mulDown(x.Lo, y.Hi), mulUp(x.Hi, y.Hi)}
+	case y.Hi <= 0:
+		return Interval{mulDown(x.Hi, y.Lo), mulUp(x.Lo, y.Lo)}
+	}
+	return Interval{
+		fmin(mulDown(x.Lo, y.Hi), mulDown(x.Hi, y.Lo)),
+		fmax(mulUp(x.Lo, y.Lo), mulUp(x.Hi, y.Hi)),
+	}
 }
 
 // Scale returns v * x for a float64 v; a NaN v gives Entire.
@@ -217,12 +233,12 @@ func (x Interval) Recip() Interval {
 
 // Max returns {max(u, v) : u in x, v in y}.
 func (x Interval) Max(y Interval) Interval {
-	return Interval{math.Max(x.Lo, y.Lo), math.Max(x.Hi, y.Hi)}
+	return Interval{fmax(x.Lo, y.Lo), fmax(x.Hi, y.Hi)}
 }
 
 // Min returns {min(u, v) : u in x, v in y}.
 func (x Interval) Min(y Interval) Interval {
-	return Interval{math.Min(x.Lo, y.Lo), math.Min(x.Hi, y.Hi)}
+	return Interval{fmin(x.Lo, y.Lo), fmin(x.Hi, y.Hi)}
 }
 
 // IntPow returns x^n for an integer n. The power is monotone on each side

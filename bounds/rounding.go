@@ -46,6 +46,7 @@ const minExact = 0x1p-968
 
 // addUp returns an upper bound on a + b: RN(a+b) if that is already above
 // the exact sum, else the next float64. +Inf + -Inf gives +Inf.
+// The fast path is small enough to be inlined.
 func addUp(a, b float64) float64 {
 	s := a + b
 	// TwoSum error e = (a+b) - s; NaN when s or an operand is infinite.
@@ -55,10 +56,7 @@ func addUp(a, b float64) float64 {
 	if e := (a - (s - bb)) + (b - bb); e <= 0 && e >= -math.MaxFloat64 {
 		return s
 	}
-	if s != s {
-		return math.Inf(1)
-	}
-	return nextUp(s)
+	return stepUp(s)
 }
 
 // addDown returns a lower bound on a + b, the mirror of addUp.
@@ -68,6 +66,19 @@ func addDown(a, b float64) float64 {
 	if e := (a - (s - bb)) + (b - bb); e >= 0 && e <= math.MaxFloat64 {
 		return s
 	}
+	return stepDown(s)
+}
+
+// stepUp returns nextUp(s), and +Inf for a NaN s (from +Inf + -Inf).
+func stepUp(s float64) float64 {
+	if s != s {
+		return math.Inf(1)
+	}
+	return nextUp(s)
+}
+
+// stepDown returns nextDown(s), and -Inf for a NaN s.
+func stepDown(s float64) float64 {
 	if s != s {
 		return math.Inf(-1)
 	}
@@ -76,31 +87,41 @@ func addDown(a, b float64) float64 {
 
 // mulUp and mulDown treat 0 times ±Inf as 0 (IEEE 1788) and are exact when
 // a factor is 0 or the product is exact; other products round outward.
+// The fast path (|a·b| ≥ 2⁻⁹⁶⁸, the FMA error on the right side) is small
+// enough to be inlined.
 func mulUp(a, b float64) float64 {
-	if a == 0 || b == 0 {
-		return 0
-	}
 	p := a * b
 	// e = a·b - p; -Inf when a finite product overflowed to +Inf, NaN when
-	// an operand is infinite.
+	// an operand is infinite or 0·Inf.
 	if e := math.FMA(a, b, -p); e <= 0 && math.Abs(p) >= minExact {
 		return p
 	}
-	if p == 0 && (a < 0) != (b < 0) {
+	return mulUpSlow(a, b, p)
+}
+
+func mulUpSlow(a, b, p float64) float64 {
+	switch {
+	case a == 0 || b == 0:
+		return 0
+	case p == 0 && (a < 0) != (b < 0):
 		return 0 // a negative product underflowed
 	}
 	return nextUp(p)
 }
 
 func mulDown(a, b float64) float64 {
-	if a == 0 || b == 0 {
-		return 0
-	}
 	p := a * b
 	if e := math.FMA(a, b, -p); e >= 0 && math.Abs(p) >= minExact {
 		return p
 	}
-	if p == 0 && (a < 0) == (b < 0) {
+	return mulDownSlow(a, b, p)
+}
+
+func mulDownSlow(a, b, p float64) float64 {
+	switch {
+	case a == 0 || b == 0:
+		return 0
+	case p == 0 && (a < 0) == (b < 0):
 		return 0 // a positive product underflowed
 	}
 	return nextDown(p)
@@ -196,27 +217,48 @@ const (
 )
 
 // widenUp returns an upper bound on a quantity computed as r by a math
-// function accurate to libmUlps ulps. It must only see +Inf from a math
-// function whose exact value overflowed (exceeds MaxFloat64).
-func widenUp(r float64) float64 {
-	switch {
-	case math.IsInf(r, 1):
-		return r
-	case math.IsInf(r, -1):
-		// The exact value overflowed below: it is at most -MaxFloat64.
-		return -math.MaxFloat64
+// function accurate to libmUlps ulps, plus an absolute error libmAbs:
+//
+//	r·(1 ± libmRel) + libmAbs, rounded to nearest, then one ulp up.
+//
+// The two roundings to nearest lose at most half an ulp of r against the
+// final step, so at least 7 of the 8 ulps of libmRel remain. It must only
+// see +Inf from a math function whose exact value overflowed (exceeds
+// MaxFloat64); -Inf gives -MaxFloat64 (the exact value is below it).
+func widenUp(r float64) float64 { return widenUpBy(r, libmAbs) }
+
+// widenDown returns a lower bound, the mirror of widenUp: +Inf gives
+// MaxFloat64.
+func widenDown(r float64) float64 { return widenDownBy(r, libmAbs) }
+
+// widenUpBy is widenUp with the absolute error e ≥ libmAbs.
+func widenUpBy(r, e float64) float64 {
+	if r >= 0 {
+		return nextUp(r*(1+libmRel) + e)
 	}
-	return nextUp(r + math.Abs(r)*libmRel + libmAbs)
+	return nextUp(r*(1-libmRel) + e)
 }
 
-// widenDown returns a lower bound, the mirror of widenUp.
-func widenDown(r float64) float64 {
-	switch {
-	case math.IsInf(r, -1):
-		return r
-	case math.IsInf(r, 1):
-		// The exact value overflowed: it is at least MaxFloat64.
-		return math.MaxFloat64
+// widenDownBy is widenDown with the absolute error e ≥ libmAbs.
+func widenDownBy(r, e float64) float64 {
+	if r >= 0 {
+		return nextDown(r*(1-libmRel) - e)
 	}
-	return nextDown(r - math.Abs(r)*libmRel - libmAbs)
+	return nextDown(r*(1+libmRel) - e)
+}
+
+// fmax and fmin are math.Max and math.Min without the NaN and signed-zero
+// handling, which intervals do not need (and which costs a call on amd64).
+func fmax(a, b float64) float64 {
+	if a > b {
+		return a
+	}
+	return b
+}
+
+func fmin(a, b float64) float64 {
+	if a < b {
+		return a
+	}
+	return b
 }

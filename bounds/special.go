@@ -87,13 +87,13 @@ func Sinc(x Interval) Interval {
 	var r Interval
 	have := false
 	if a.Lo <= sincFirstMin {
-		r = Interval{sincPoint(math.Min(a.Hi, sincFirstMin)).Lo, sincPoint(a.Lo).Hi}
+		r = Interval{sincPoint(fmin(a.Hi, sincFirstMin)).Lo, sincPoint(a.Lo).Hi}
 		have = true
 	}
 	if a.Hi > sincFirstMin {
-		b := Interval{math.Max(a.Lo, sincFirstMin), a.Hi}
+		b := Interval{fmax(a.Lo, sincFirstMin), a.Hi}
 		env := divUp(1, b.Lo)
-		s := Interval{math.Max(sincMinValue, -env), env}
+		s := Interval{fmax(sincMinValue, -env), env}
 		if b.IsFinite() {
 			if t, ok := Sin(b).Div(b).Intersect(s); ok {
 				s = t
@@ -124,7 +124,7 @@ func xOverSinhPoint(v float64) Interval {
 	eLo, eHi := expBounds(-a)
 	lo := divDown(mulDown(2*a, eLo), addUp(1, -mulDown(eLo, eLo)))
 	hi := divUp(mulUp(2*a, eHi), addDown(1, -mulUp(eHi, eHi)))
-	return Interval{lo, math.Min(1, hi)}
+	return Interval{lo, fmin(1, hi)}
 }
 
 // XOverSinh returns x/sinh(x), with value 1 at x = 0 (even, decreasing in
@@ -164,7 +164,7 @@ func SinhcSqrt(z Interval) Interval {
 	if z.Lo >= sinhcSqrtMonotone {
 		return Interval{sinhcSqrtPoint(z.Lo).Lo, sinhcSqrtPoint(z.Hi).Hi}
 	}
-	neg := Interval{z.Lo, math.Min(z.Hi, sinhcSqrtMonotone)}
+	neg := Interval{z.Lo, fmin(z.Hi, sinhcSqrtMonotone)}
 	r := Sinc(Sqrt(neg.Neg()))
 	if z.Hi > sinhcSqrtMonotone {
 		r = r.Hull(Interval{sinhcSqrtPoint(sinhcSqrtMonotone).Lo, sinhcSqrtPoint(z.Hi).Hi})
