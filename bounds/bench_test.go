@@ -4,8 +4,8 @@ import "testing"
 
 // Sinks keep the compiler from discarding benchmarked results.
 var (
-	sinkI Interval
-	sinkC Complex
+	sinkIv Interval
+	sinkCx Complex
 )
 
 // benchInputs are the argument shapes of the benchmarks: a point, a thin
@@ -29,7 +29,7 @@ func BenchmarkAdd(b *testing.B) {
 			for b.Loop() {
 				x = x.Add(y)
 			}
-			sinkI = x
+			sinkIv = x
 		})
 	}
 }
@@ -40,7 +40,7 @@ func BenchmarkMul(b *testing.B) {
 		b.Run(in.name, func(b *testing.B) {
 			b.ReportAllocs()
 			for b.Loop() {
-				sinkI = in.x.Mul(y)
+				sinkIv = in.x.Mul(y)
 			}
 		})
 	}
@@ -54,7 +54,7 @@ func BenchmarkExp(b *testing.B) {
 		b.Run(in.name, func(b *testing.B) {
 			b.ReportAllocs()
 			for b.Loop() {
-				sinkI = Exp(in.x)
+				sinkIv = Exp(in.x)
 			}
 		})
 	}
@@ -68,7 +68,7 @@ func BenchmarkSin(b *testing.B) {
 		b.Run(in.name, func(b *testing.B) {
 			b.ReportAllocs()
 			for b.Loop() {
-				sinkI = Sin(in.x)
+				sinkIv = Sin(in.x)
 			}
 		})
 	}
@@ -79,7 +79,7 @@ func BenchmarkCis(b *testing.B) {
 		b.Run(in.name, func(b *testing.B) {
 			b.ReportAllocs()
 			for b.Loop() {
-				sinkC = Cis(in.x)
+				sinkCx = Cis(in.x)
 			}
 		})
 	}
@@ -92,7 +92,7 @@ func BenchmarkComplexMul(b *testing.B) {
 		b.Run(in.name, func(b *testing.B) {
 			b.ReportAllocs()
 			for b.Loop() {
-				sinkC = z.Mul(w)
+				sinkCx = z.Mul(w)
 			}
 		})
 	}
@@ -103,7 +103,7 @@ func BenchmarkErfc(b *testing.B) {
 		b.Run(in.name, func(b *testing.B) {
 			b.ReportAllocs()
 			for b.Loop() {
-				sinkI = Erfc(in.x)
+				sinkIv = Erfc(in.x)
 			}
 		})
 	}
@@ -114,7 +114,7 @@ func BenchmarkBesselI0(b *testing.B) {
 		b.Run(map[float64]string{5: "beta-5", 40: "beta-40"}[beta], func(b *testing.B) {
 			b.ReportAllocs()
 			for b.Loop() {
-				sinkI = BesselI0(Point(beta))
+				sinkIv = BesselI0(Point(beta))
 			}
 		})
 	}
@@ -128,7 +128,7 @@ func BenchmarkSinhcSqrt(b *testing.B) {
 		b.Run(z.name, func(b *testing.B) {
 			b.ReportAllocs()
 			for b.Loop() {
-				sinkI = SinhcSqrt(Point(z.z))
+				sinkIv = SinhcSqrt(Point(z.z))
 			}
 		})
 	}

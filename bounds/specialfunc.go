@@ -16,13 +16,13 @@ import "math"
 // 2⁻⁶⁰ within 10 terms.
 const seriesRadius = 1
 
-// sinhcSeries returns an enclosure of S(z) = Σ_{k≥0} z^k/(2k+1)! for
+// sinhcPowerSeries returns an enclosure of S(z) = Σ_{k≥0} z^k/(2k+1)! for
 // z ⊆ [-1, 1]. S(x²) = sinh(x)/x and S(-x²) = sin(x)/x (DLMF 4.33.1 and
 // 4.19.1, the Maclaurin series of sinh and sin, from memory).
 //
 // Truncation after the term t_n: the ratio of consecutive terms is at most
 // |z|/((2n+2)(2n+3)) ≤ 1/2, so the remainder is at most 2|t_n|.
-func sinhcSeries(z Interval) Interval {
+func sinhcPowerSeries(z Interval) Interval {
 	sum := Point(1)
 	t := Point(1)
 	for k := 0; k < 30; k++ { // 10 terms suffice for |z| ≤ 1
@@ -41,7 +41,7 @@ func sinhcSeries(z Interval) Interval {
 func sinhcPoint(v float64) Interval {
 	a := math.Abs(v)
 	if a <= seriesRadius {
-		return sinhcSeries(Point(a).Sqr())
+		return sinhcPowerSeries(Point(a).Sqr())
 	}
 	return Sinh(Point(a)).Div(Point(a))
 }
@@ -68,7 +68,7 @@ const (
 func sincPoint(v float64) Interval {
 	a := math.Abs(v)
 	if a <= seriesRadius {
-		return sinhcSeries(Point(a).Sqr().Neg())
+		return sinhcPowerSeries(Point(a).Sqr().Neg())
 	}
 	return Sin(Point(a)).Div(Point(a))
 }
@@ -115,7 +115,7 @@ func xOverSinhPoint(v float64) Interval {
 	a := math.Abs(v)
 	switch {
 	case a <= seriesRadius:
-		return sinhcSeries(Point(a).Sqr()).Recip()
+		return sinhcPowerSeries(Point(a).Sqr()).Recip()
 	case a > 700:
 		// 2a e^(-a/2) ≤ 1 - e^(-2a) here, so x/sinh x ≤ e^(-a/2).
 		_, hi := expBounds(-a / 2)
@@ -144,7 +144,7 @@ const sinhcSqrtMonotone = -20
 func sinhcSqrtPoint(z float64) Interval {
 	switch {
 	case math.Abs(z) <= seriesRadius:
-		return sinhcSeries(Point(z))
+		return sinhcPowerSeries(Point(z))
 	case z > 0:
 		return Sinhc(Sqrt(Point(z)))
 	}
