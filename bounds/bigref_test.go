@@ -1,7 +1,7 @@
 package bounds
 
 // High-precision references for the tests of rounding.go, interval.go,
-// elementary.go, special.go and complex.go. The reference functions use
+// elementary.go, specialfunc.go and complex.go. The reference functions use
 // math/big only, so that no value in them depends on package math or on the
 // code under test (package math only generates random inputs).
 //

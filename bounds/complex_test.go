@@ -151,7 +151,21 @@ func TestCisContainment(t *testing.T) {
 	for _, w := range widths {
 		worst = math.Max(worst, w)
 	}
-	t.Logf("Cis on points |θ| < 1e4: max width %.3g", worst)
+	// Thin phases as the alias sums form them: 2π·u·L in interval
+	// arithmetic (width a few ulps of θ).
+	var worstThin, worstExcess float64
+	for i := 0; i < 300; i++ {
+		theta := TwoPi.Scale(r.Float64()).Scale(float64(1 + r.IntN(1000)))
+		c := Cis(theta)
+		w := math.Max(c.Re.Width(), c.Im.Width())
+		worstThin = math.Max(worstThin, w)
+		worstExcess = math.Max(worstExcess, w/theta.Width())
+		s, co := refSinCos(theta.Mid())
+		checkEnclosure(t, fmt.Sprintf("Cis(%v).Re", theta), c.Re, co)
+		checkEnclosure(t, fmt.Sprintf("Cis(%v).Im", theta), c.Im, s)
+	}
+	t.Logf("Cis on points |θ| < 1e4: max width %.3g; on thin phases 2π·u·L, L ≤ 1000: max width %.3g, max width/width(θ) %.3g",
+		worst, worstThin, worstExcess)
 }
 
 // TestComplexInflateHull checks Inflate contains the disc of radius r and

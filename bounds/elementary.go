@@ -6,6 +6,18 @@ import "math"
 // function at the endpoints that bound the range (using monotonicity or the
 // location of extrema) and widens the result as described under "Accuracy"
 // in the package documentation.
+//
+// Defects of Go's math package (Go 1.26, amd64) found by the math/big tests
+// and avoided here:
+//
+//   - math.Exp returns +Inf for 709.437 ≲ x ≤ ln MaxFloat64 ≈ 709.7827,
+//     where e^x is finite; math.Sinh and math.Cosh inherit this (and
+//     overflow anyway up to ln(2·MaxFloat64) ≈ 710.4759). See expBounds.
+//   - math.Expm1(709.782712893384) = +Inf, though e^x - 1 < MaxFloat64
+//     there. See expm1Bounds.
+//   - math.Log of a subnormal argument is wrong by up to 35 (Go issue
+//     56600); math.Pow inherits this for fractional exponents, which is
+//     one more reason not to use it. See logBounds.
 
 // Interval constants, each a rigorous enclosure of the named number.
 var (
@@ -32,9 +44,10 @@ var (
 )
 
 // expDirect is the largest argument for which we use math.Exp directly.
-// On amd64 math.Exp returns +Inf for v ≳ 709.437 (where v·log₂e rounds to
-// 1024), although e^v < MaxFloat64 up to v = ln MaxFloat64 ≈ 709.7827; above
-// expDirect we compute e^v = e^(v-2)·e² instead (v-2 is exact there).
+// On amd64 (assembly) math.Exp returns +Inf for v ≳ 709.437, where v·log₂e
+// rounds to 1024, although e^v < MaxFloat64 up to v = ln MaxFloat64 ≈
+// 709.7827; above expDirect we compute e^v = e^(v-2)·e² instead (v-2 is
+// exact there).
 const expDirect = 709
 
 // expBounds returns lo ≤ e^v ≤ hi. For v > ln MaxFloat64 it returns

@@ -201,8 +201,7 @@ func sqrtDown(a float64) float64 {
 
 // Elementary-function widening. See "Accuracy" in the package
 // documentation: we assume every math function we call is within libmUlps
-// ulps of the exact value (measured against math/big references in
-// elementary_test.go), and widen each result r to
+// ulps of the exact value, and widen each result r to
 //
 //	[r - |r|·libmRel - libmAbs, r + |r|·libmRel + libmAbs].
 //
@@ -210,6 +209,15 @@ func sqrtDown(a float64) float64 {
 // most 2⁻⁵² |r|), so after the rounding of the widening itself at least 7
 // ulps remain; libmAbs = 2⁻¹⁰⁶⁰ is 2¹⁴ units of the subnormal spacing and
 // covers results that underflow.
+//
+// Measured against math/big references on amd64 (elementary_test.go,
+// 30 000 inputs per function): the largest errors are 2.44 ulps
+// (math.Sinh near 0) and 2.36 ulps (math.Erfc near 5 and 26), 1.7 ulps or
+// less for Exp, Expm1, Log, Log1p, Sin, Cos, Cosh, Tanh, Erf, 0.5 for
+// Sqrt, and below one subnormal unit for results that underflow — where
+// the functions return a value at all: their known defects (overflow to
+// +Inf below ln MaxFloat64, Log of subnormals) are avoided in
+// elementary.go.
 const (
 	libmUlps = 4
 	libmRel  = 0x1p-49

@@ -121,7 +121,7 @@ func TestSpecialContainment(t *testing.T) {
 	}
 }
 
-// TestSpecialReferences checks the references of special_test.go against
+// TestSpecialReferences checks the references of specialfunc_test.go against
 // published values and each other.
 func TestSpecialReferences(t *testing.T) {
 	t.Parallel()
