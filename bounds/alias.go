@@ -345,7 +345,6 @@ func (s *aliasSummer) spectralAlias(P Interval, F Complex, limit int64) (Complex
 	// an accurate phase.
 	u := s.shift.Div(Point(s.g.Step))
 	u = u.AddFloat(-math.Round(u.Mid()))
-	theta := TwoPi.Mul(u)
 	zeroShift := u.Lo == 0 && u.Hi == 0
 
 	// The remainder goal is relative to the size of the copies summed so
@@ -390,7 +389,11 @@ func (s *aliasSummer) spectralAlias(P Interval, F Complex, limit int64) (Complex
 		case zeroShift:
 			sum = sum.Add(right).Add(left)
 		default:
-			ph := Cis(theta.Scale(float64(L)))
+			// e^{i2πuL}: reduce uL modulo 1 before multiplying by the
+			// enclosure of 2π, so that π's width is not multiplied by L.
+			v := u.Scale(float64(L))
+			v = v.AddFloat(-math.Round(v.Mid()))
+			ph := Cis(TwoPi.Mul(v))
 			sum = sum.Add(right.Mul(ph)).Add(left.Mul(ph.Conj()))
 		}
 		// Estimate first (cheap); twice the estimate must meet the goal
@@ -480,29 +483,29 @@ func (s *aliasSummer) spatialInfinite(scale float64) (Complex, Method, error) {
 		}
 		return Complex{}, Method{}, workLimitf("settings.max_terms", "spatial sum of %v needs more than %d samples", s.f, s.set.maxTerms())
 	}
-	var T Complex
+	var acc complexAccumulator
 	for k := lo; k <= hi; k++ {
 		if err := s.spend(1, "spatial sum"); err != nil {
 			return Complex{}, Method{}, err
 		}
-		T = T.Add(s.term(k))
+		acc.add(s.term(k))
 	}
 	rem := s.spatialRays(lo, hi)
-	T = T.Inflate(rem)
+	T := acc.value().Inflate(rem)
 	return T, Method{Side: SpatialSide, AliasTerms: hi - lo + 1, Remainder: rem, RemainderFrom: s.spat.Kinds()}, nil
 }
 
 // finiteSum sums T over the samples of a finite grid.
 func (s *aliasSummer) finiteSum() (Complex, error) {
 	lo, hi := s.g.Indices()
-	var T Complex
+	var acc complexAccumulator
 	for k := lo; k <= hi; k++ {
 		if err := s.spend(1, "finite grid sum"); err != nil {
 			return Complex{}, err
 		}
-		T = T.Add(s.term(k))
+		acc.add(s.term(k))
 	}
-	return T, nil
+	return acc.value(), nil
 }
 
 // omittedSum returns the truncation part -h Σ_{k omitted} f(x_k)e^{-iξx_k}

@@ -188,8 +188,13 @@ func besselI0Bounds(a float64) (lo, hi float64) {
 	if !(a <= besselI0Overflow) { // also NaN
 		return math.MaxFloat64, math.Inf(1)
 	}
-	qLo := mulDown(mulDown(a, a), 0.25)
-	qHi := mulUp(mulUp(a, a), 0.25)
+	return besselI0Quarter(mulDown(mulDown(a, a), 0.25), mulUp(mulUp(a, a), 0.25))
+}
+
+// besselI0Quarter bounds I₀ given q = a²/4 in [qLo, qHi], qLo ≥ 0: the
+// series of besselI0Bounds in q, for callers (the Kaiser-Bessel window)
+// that can form q without squaring a root.
+func besselI0Quarter(qLo, qHi float64) (lo, hi float64) {
 	tLo, tHi := 1.0, 1.0
 	lo, hi = 1, 1
 	// a ≤ 715 needs fewer than 600 terms; the cap only guards the loop.
@@ -201,6 +206,9 @@ func besselI0Bounds(a float64) (lo, hi float64) {
 		tHi = mulUp(tHi, divUp(qHi, kk))
 		lo = addDown(lo, tLo)
 		hi = addUp(hi, tHi)
+		if math.IsInf(hi, 1) {
+			return lo, hi
+		}
 		next := float64(k+1) * float64(k+1)
 		if rho := divUp(qHi, next); rho <= 0.5 && tHi <= lo*0x1p-60 {
 			// Remainder Σ_{j>k} t_j ≤ t_k·ρ/(1-ρ) ≤ t_k (ρ ≤ 1/2).
