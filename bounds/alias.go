@@ -65,6 +65,9 @@ func AliasSum(ctx context.Context, f Family, g Grid, xi float64, set Settings) (
 		return SampledSum{}, err
 	}
 	s := newSummer(ctx, f, g, Point(xi), Point(g.Shift), false, set)
+	if err := validateEnvelopes(s.spat, s.spec); err != nil {
+		return SampledSum{}, err
+	}
 	res, err := s.run()
 	if err != nil {
 		return SampledSum{}, err
@@ -76,7 +79,7 @@ func AliasSum(ctx context.Context, f Family, g Grid, xi float64, set Settings) (
 }
 
 func checkAliasArgs(f Family, g Grid, xi float64, set Settings) error {
-	if err := Validate(f); err != nil {
+	if err := validateParams(f); err != nil {
 		return err
 	}
 	if err := g.Validate("grid"); err != nil {
@@ -104,6 +107,9 @@ type aliasSummer struct {
 	terms int64 // terms summed so far, against the work limit
 
 	spec, spat Envelope // the family's envelopes, fetched once
+
+	first     float64 // spectralEstimate(P, 0), once computed
+	haveFirst bool
 }
 
 // newSummer returns a summer for f on g at frequencies xi and shifts shift.
@@ -198,13 +204,27 @@ func (s *aliasSummer) run() (SampledSum, error) {
 		res.Alias = alias
 		res.Method = m
 		if !s.g.Infinite() {
-			trunc, n, rem, err := s.omittedSum(scale)
+			trunc, n, rem, ok, err := s.omittedSum(scale, truncationCap)
 			if err != nil {
 				return res, err
 			}
-			res.Truncation = trunc
 			res.Method.TruncationTerms = n
 			res.Method.Remainder = addUp(res.Method.Remainder, rem)
+			if !ok && s.terms+s.g.Count <= s.set.maxTerms() {
+				// The omitted samples decay too slowly to sum to the goal:
+				// sum the grid itself, so that T and T - F are exact, and
+				// let the truncation part be what the alias part leaves.
+				T, err := s.finiteSum()
+				if err != nil {
+					return res, err
+				}
+				res.Sampled = T
+				res.Error = T.Sub(F)
+				res.Truncation = res.Error.Sub(res.Alias)
+				res.Method.AliasTerms += s.g.Count
+				return res, nil
+			}
+			res.Truncation = trunc
 		}
 		res.Error = res.Alias.Add(res.Truncation)
 		res.Sampled = F.Add(res.Error)
@@ -224,7 +244,7 @@ func (s *aliasSummer) run() (SampledSum, error) {
 		if err != nil {
 			return res, err
 		}
-		trunc, n, rem, err := s.omittedSum(scale)
+		trunc, n, rem, _, err := s.omittedSum(scale, truncationCap)
 		if err != nil {
 			return res, err
 		}
@@ -238,6 +258,10 @@ func (s *aliasSummer) run() (SampledSum, error) {
 	return res, nil
 }
 
+// truncationCap is how many omitted samples omittedSum sums at most before
+// it settles for the envelope's bound on the rest.
+const truncationCap = 1 << 14
+
 // autoSpectralCopies is how many alias copies on each side AliasSum tries
 // before it estimates which side of the Poisson formula is cheaper.
 const autoSpectralCopies = 32
@@ -245,11 +269,12 @@ const autoSpectralCopies = 32
 // trialWorthwhile reports whether autoSpectralCopies copies on each side
 // may reach the goal, by the float64 estimate of the tail after them.
 func (s *aliasSummer) trialWorthwhile(P Interval, F Complex) bool {
-	first := s.spectralEstimate(P, 0)
+	first := s.firstCopies(P)
 	if math.IsInf(first, 1) {
 		return false
 	}
-	return s.spectralEstimate(P, autoSpectralCopies) <= s.goal(math.Max(first, 0x1p-60*F.Mag()))
+	goal := s.goal(math.Max(first, 0x1p-60*F.Mag()))
+	return first <= goal || s.spectralEstimate(P, autoSpectralCopies) <= goal
 }
 
 // chooseSide picks the spectral side when its alias sum needs no more
@@ -279,6 +304,15 @@ func (s *aliasSummer) spectralTail(P Interval, L int64) float64 {
 	spec := s.spec
 	next := P.Scale(float64(L + 1))
 	return addUp(spec.RayTail(s.xi.Add(next), 1, P.Lo), spec.RayTail(s.xi.Sub(next), -1, P.Lo))
+}
+
+// firstCopies returns spectralEstimate(P, 0), computed once per summer.
+func (s *aliasSummer) firstCopies(P Interval) float64 {
+	if !s.haveFirst {
+		s.first = s.spectralEstimate(P, 0)
+		s.haveFirst = true
+	}
+	return s.first
 }
 
 // spectralEstimate approximates spectralTail in float64 (not a bound).
@@ -319,7 +353,7 @@ func (s *aliasSummer) spectralTermsEstimate(P Interval, goal float64) int64 {
 // e^{i2πls/h}, adding copies until the envelope bounds the rest below the
 // goal.
 func (s *aliasSummer) spectralAlias(P Interval, F Complex, limit int64) (Complex, Method, bool, error) {
-	tail := 2 * s.spectralEstimate(P, 0)
+	tail := 2 * s.firstCopies(P)
 	if math.IsInf(tail, 1) {
 		return Complex{}, Method{}, false, invalidf("family", "%v: spectral envelope is not summable; the spectral side cannot be used", s.f)
 	}
@@ -327,23 +361,23 @@ func (s *aliasSummer) spectralAlias(P Interval, F Complex, limit int64) (Complex
 	// an accurate phase.
 	u := s.shift.Div(Point(s.g.Step))
 	u = u.AddFloat(-math.Round(u.Mid()))
-	theta := TwoPi.Mul(u)
 	zeroShift := u.Lo == 0 && u.Hi == 0
 
 	// The remainder goal is relative to the size of the copies summed so
 	// far (not only to their sum, which may be 0 when every copy sits on a
 	// zero of F); before any copy is summed, to the estimate of the first.
 	first := tail / 2
+	floor := 0x1p-60 * F.Mag()
 	var sum Complex
-	var sumAbs float64
+	var sumAbs float64 // Σ |copies| ≥ |sum|, up to a factor √2
 	var L int64
 	rigorous := false // whether tail is the rigorous bound or an estimate
 	for {
-		scale := math.Max(sum.Mag(), sumAbs)
+		scale := sumAbs
 		if scale == 0 {
 			scale = 0x1p-60 * first
 		}
-		goal := s.goal(math.Max(scale, 0x1p-60*F.Mag()))
+		goal := s.goal(math.Max(scale, floor))
 		if tail <= goal && (L > 0 || tail == 0 || tail <= s.set.Tol) {
 			if rigorous {
 				break
@@ -365,14 +399,18 @@ func (s *aliasSummer) spectralAlias(P Interval, F Complex, limit int64) (Complex
 		lp := P.Scale(float64(L))
 		right := s.f.Transform(s.xi.Add(lp))
 		left := s.f.Transform(s.xi.Sub(lp))
-		sumAbs += right.Mag() + left.Mag()
+		sumAbs += right.Re.Mag() + right.Im.Mag() + left.Re.Mag() + left.Im.Mag()
 		switch {
 		case s.abs:
 			sum = sum.Add(RealC(right.Abs().Add(left.Abs())))
 		case zeroShift:
 			sum = sum.Add(right).Add(left)
 		default:
-			ph := Cis(theta.Scale(float64(L)))
+			// e^{i2πuL}: reduce uL modulo 1 before multiplying by the
+			// enclosure of 2π, so that π's width is not multiplied by L.
+			v := u.Scale(float64(L))
+			v = v.AddFloat(-math.Round(v.Mid()))
+			ph := Cis(TwoPi.Mul(v))
 			sum = sum.Add(right.Mul(ph)).Add(left.Mul(ph.Conj()))
 		}
 		// Estimate first (cheap); twice the estimate must meet the goal
@@ -462,53 +500,67 @@ func (s *aliasSummer) spatialInfinite(scale float64) (Complex, Method, error) {
 		}
 		return Complex{}, Method{}, workLimitf("settings.max_terms", "spatial sum of %v needs more than %d samples", s.f, s.set.maxTerms())
 	}
-	var T Complex
+	var acc complexAccumulator
 	for k := lo; k <= hi; k++ {
 		if err := s.spend(1, "spatial sum"); err != nil {
 			return Complex{}, Method{}, err
 		}
-		T = T.Add(s.term(k))
+		acc.add(s.term(k))
 	}
 	rem := s.spatialRays(lo, hi)
-	T = T.Inflate(rem)
+	T := acc.value().Inflate(rem)
 	return T, Method{Side: SpatialSide, AliasTerms: hi - lo + 1, Remainder: rem, RemainderFrom: s.spat.Kinds()}, nil
 }
 
 // finiteSum sums T over the samples of a finite grid.
 func (s *aliasSummer) finiteSum() (Complex, error) {
 	lo, hi := s.g.Indices()
-	var T Complex
+	var acc complexAccumulator
 	for k := lo; k <= hi; k++ {
 		if err := s.spend(1, "finite grid sum"); err != nil {
 			return Complex{}, err
 		}
-		T = T.Add(s.term(k))
+		acc.add(s.term(k))
 	}
-	return T, nil
+	return acc.value(), nil
 }
 
 // omittedSum returns the truncation part -h Σ_{k omitted} f(x_k)e^{-iξx_k}
 // of a finite grid: the omitted samples nearest the grid are summed
 // explicitly, walking outward on both sides, until the envelope bounds the
-// rest below the goal. It returns the enclosure, the number of samples
-// summed and the remainder bound.
-func (s *aliasSummer) omittedSum(scale float64) (Complex, int64, float64, error) {
+// rest below the goal or cap samples have been summed. It returns the
+// enclosure (always rigorous: the remainder is included), the number of
+// samples summed, the remainder bound and whether the goal was met.
+func (s *aliasSummer) omittedSum(scale float64, cap int64) (Complex, int64, float64, bool, error) {
 	lo, hi := s.g.Indices()
 	var sum Complex
 	var n int64
 	a, b := lo, hi // samples a..b are accounted for
+	h := s.g.Step
+	// Leave room in the work limit for summing the grid itself.
+	cap = min(cap, s.set.maxTerms()-s.terms-s.g.Count)
 	for {
-		rem := s.spatialRays(a, b)
-		if math.IsInf(rem, 1) {
-			return Complex{}, 0, 0, invalidf("family", "%v: spatial envelope is not summable; the truncation error is unbounded", s.f)
-		}
-		// Sum at least the nearest omitted pair, so that a small truncation
-		// part is known to relative accuracy, not only bounded.
-		if rem <= s.goal(math.Max(sum.Mag(), 0x1p-60*scale)) && (n > 0 || rem == 0 || rem <= s.set.Tol) {
-			return sum.Neg().Inflate(rem), n, rem, nil
+		goal := s.goal(math.Max(sum.Mag(), 0x1p-60*scale))
+		// The rigorous remainder costs far more than a term: take it when
+		// the float estimate says the goal is met, and at doubling counts.
+		est := h * (s.spat.RayEstimate(s.at(b+1).Mid(), 1, h) + s.spat.RayEstimate(s.at(a-1).Mid(), -1, h))
+		if n == 0 || 2*est <= goal || n&(n-1) == 0 || n >= cap {
+			rem := s.spatialRays(a, b)
+			if math.IsInf(rem, 1) {
+				return Complex{}, 0, 0, false, invalidf("family", "%v: spatial envelope is not summable; the truncation error is unbounded", s.f)
+			}
+			// Sum at least the nearest omitted pair, so that a small
+			// truncation part is known to relative accuracy, not only
+			// bounded.
+			if rem <= goal && (n > 0 || rem == 0 || rem <= s.set.Tol) {
+				return sum.Neg().Inflate(rem), n, rem, true, nil
+			}
+			if n >= cap {
+				return sum.Neg().Inflate(rem), n, rem, false, nil
+			}
 		}
 		if err := s.spend(2, "truncation sum"); err != nil {
-			return Complex{}, 0, 0, err
+			return Complex{}, 0, 0, false, err
 		}
 		a--
 		b++

@@ -336,6 +336,9 @@ func FamilyBudget(ctx context.Context, f Family, g Grid, band Band, opt BudgetOp
 	if err := checkAliasArgs(f, g, band.Center, opt.Settings); err != nil {
 		return Budget{}, err
 	}
+	if err := validateEnvelopes(f.Spatial(), f.Spectral()); err != nil {
+		return Budget{}, err
+	}
 	if err := band.Validate("band"); err != nil {
 		return Budget{}, err
 	}
@@ -455,7 +458,7 @@ func (fb *familyBudgeter) at(xi Interval) (Budget, error) {
 			fb.pieces = fb.truncPieces
 		} else {
 			st := fb.summer(fb.g, xi, fb.shifts, false, fb.opt.Settings)
-			trunc, _, _, err := st.omittedSum(F.Mag())
+			trunc, _, _, _, err := st.omittedSum(F.Mag(), truncationCap)
 			if err != nil {
 				return Budget{}, err
 			}
@@ -514,8 +517,14 @@ func (fb *familyBudgeter) absTruncation() (float64, error) {
 		// A lower bound of the explicit sum, at the middle shift, sets
 		// the goal.
 		est := 0.0
+		// Leave room in the work limit for the pieces, as omittedSum
+		// leaves it for the grid.
+		cap := min(int64(truncationCap), (fb.opt.maxTerms()-1)/(2*(truncPieces+1)))
 		for {
 			next := max(1, 2*m)
+			if next > cap {
+				break // the remainder stays as it is: still rigorous
+			}
 			if err := mid.spend(2*(next-m), "truncation sum"); err != nil {
 				return 0, err
 			}
@@ -527,6 +536,9 @@ func (fb *familyBudgeter) absTruncation() (float64, error) {
 			if r <= whole.goal(est) {
 				break
 			}
+		}
+		if math.IsInf(r, 1) {
+			r = rem(m)
 		}
 		pieces = truncPieces
 		sp := *whole
