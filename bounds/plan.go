@@ -219,13 +219,14 @@ type planner1 struct {
 
 // finalMargin is the share of the tolerance the model must meet at the
 // step chosen for the certificate: the interval evaluation exceeds the
-// model by a few parts in 10⁵ at most in the cases tested.
-const finalMargin = 1 - 0x1p-10
+// model by the remainders it leaves (up to verifyFraction of the
+// tolerance each) and a few parts in 10⁵.
+const finalMargin = 1 - 0x1p-8
 
 // verifyFraction is the share of the tolerance below which the interval
 // evaluation may leave the remainders of its infinite sums as bounds
 // (Settings.Tol of the certificate).
-const verifyFraction = 0x1p-7
+const verifyFraction = 0x1p-10
 
 func newPlanner1(ctx context.Context, req PlanRequest) *planner1 {
 	spatial, spectral := req.envelopes()
@@ -241,6 +242,10 @@ func newPlanner1(ctx context.Context, req PlanRequest) *planner1 {
 	}
 	if req.Family != nil {
 		m.val, m.absTr, m.tr = pointEvaluators(req.Family)
+		switch req.Family.(type) {
+		case GaussianFamily, ExponentialFamily, LorentzianFamily, SechFamily, SechSquaredFamily, BSplineFamily:
+			m.monotone = true
+		}
 	}
 	b := req.Band
 	m.xiMag = b.Interval().Mag()
@@ -764,8 +769,12 @@ func (p *planner1) plan() (Plan, error) {
 		return Plan{}, p.infeasible(floor, floorAt)
 	}
 	h, _ := p.minTotal(n, p.tol*finalMargin)
-	// Certify; on failure try the next admissible counts.
+	// Certify. If the certificate exceeds the tolerance, the model was
+	// optimistic by the ratio certificate/model: search again for the
+	// tolerance divided by that ratio.
 	var last Budget
+	tol := p.tol
+	defer func() { p.tol = tol }()
 	for try := 0; try < 4; try++ {
 		if compact.Grid.Count > 0 && n >= compact.Grid.Count {
 			break
@@ -775,19 +784,28 @@ func (p *planner1) plan() (Plan, error) {
 		if err != nil {
 			return Plan{}, err
 		}
-		if plan.Budget.Total <= p.tol {
+		if plan.Budget.Total <= tol {
 			plan.Verifications = verifications
 			return plan, nil
 		}
 		last = plan.Budget
-		next := p.req.Cost.Next(n + 1)
-		if next == 0 || next > limit {
+		ratio := plan.Budget.Total / plan.Model
+		if !(ratio > 1) || math.IsInf(ratio, 1) {
+			ratio = 1 + 0x1p-8
+		}
+		p.tol = math.Min(p.tol, tol/ratio) * finalMargin
+		p.hint = h
+		next, _, _, err := p.searchCount(limit)
+		if err != nil {
+			return Plan{}, err
+		}
+		if next == 0 {
 			break
 		}
-		n = next
-		p.hint = h
+		n = max(n, next)
 		h, _ = p.minTotal(n, p.tol*finalMargin)
 	}
+	p.tol = tol
 	if compact.Grid.Count > 0 {
 		compact.Verifications = verifications
 		return compact, nil

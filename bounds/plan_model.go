@@ -32,6 +32,7 @@ type planModel struct {
 	remGoal  float64 // remainders below this are not refined (the verification's Settings.Tol)
 	capped   float64 // largest remainder accepted only because a term limit was hit
 	aliasCap int     // term cap of the alias sums (modelTerms when 0)
+	monotone bool    // |f| is known to decrease away from the centre
 	sH, sVal float64 // the last step and its window-sum bound S
 	// Weights of the aliasing and the truncation in the total, and whether
 	// the rounding is left out (an axis of an n-D plan: PlanGridND weighs
@@ -55,9 +56,52 @@ func pointEvaluators(f Family) (absVal, absTr func(float64) float64, tr func(flo
 		inv := 1 / (2 * s * s)
 		amp := s * math.Sqrt(2*math.Pi)
 		ss := 0.5 * s * s
-		absTr = func(xi float64) float64 { return amp * math.Exp(-ss*xi*xi) }
-		return func(x float64) float64 { return math.Exp(-x * x * inv) }, absTr,
-			func(xi float64) complex128 { return complex(absTr(xi), 0) }
+		return withReal(func(x float64) float64 { return math.Exp(-x * x * inv) },
+			func(xi float64) float64 { return amp * math.Exp(-ss*xi*xi) })
+	case ExponentialFamily:
+		a := g.Rate
+		return withReal(func(x float64) float64 { return math.Exp(-a * math.Abs(x)) },
+			func(xi float64) float64 { return 2 * a / (a*a + xi*xi) })
+	case LorentzianFamily:
+		a := g.Width
+		return withReal(func(x float64) float64 { return 1 / (a*a + x*x) },
+			func(xi float64) float64 { return math.Pi / a * math.Exp(-a*math.Abs(xi)) })
+	case SechFamily:
+		w := g.Width
+		return withReal(func(x float64) float64 { return sechFloat(x / w) },
+			func(xi float64) float64 { return math.Pi * w * sechFloat(math.Pi*w*xi/2) })
+	case SechSquaredFamily:
+		w := g.Width
+		return withReal(func(x float64) float64 { s := sechFloat(x / w); return s * s },
+			func(xi float64) float64 {
+				v := math.Abs(math.Pi * w * xi / 2)
+				switch {
+				case v < 1e-8:
+					return 2 * w
+				case v > 700:
+					return 4 * w * v * math.Exp(-v)
+				}
+				return 2 * w * v / math.Sinh(v)
+			})
+	case FejerFamily:
+		om := g.Omega
+		return withReal(func(x float64) float64 {
+			u := om * x / 2
+			if u == 0 {
+				return 1
+			}
+			s := math.Sin(u) / u
+			return s * s
+		}, func(xi float64) float64 { return 2 * math.Pi / om * math.Max(0, 1-math.Abs(xi)/om) })
+	case WavePacketFamily:
+		s, w0 := g.Sigma, g.Omega0
+		inv := 1 / (2 * s * s)
+		amp := s * math.Sqrt(math.Pi/2)
+		return withReal(func(x float64) float64 { return math.Exp(-x*x*inv) * math.Abs(math.Cos(w0*x)) },
+			func(xi float64) float64 {
+				a, b := xi-w0, xi+w0
+				return amp * (math.Exp(-0.5*s*s*a*a) + math.Exp(-0.5*s*s*b*b))
+			})
 	case BSplineFamily:
 		m := g.Order
 		if m >= 1 && m <= MaxBSplineOrder {
@@ -81,6 +125,21 @@ func pointEvaluators(f Family) (absVal, absTr func(float64) float64, tr func(flo
 	tr = func(xi float64) complex128 { return f.Transform(Point(xi)).Mid() }
 	return func(x float64) float64 { return cmplx.Abs(f.Value(Point(x)).Mid()) },
 		func(xi float64) float64 { return cmplx.Abs(tr(xi)) }, tr
+}
+
+// withReal returns |f|, |F| and F for a real transform F.
+func withReal(absVal, F func(float64) float64) (func(float64) float64, func(float64) float64, func(float64) complex128) {
+	return absVal, func(xi float64) float64 { return math.Abs(F(xi)) },
+		func(xi float64) complex128 { return complex(F(xi), 0) }
+}
+
+// sechFloat returns sech x without overflow.
+func sechFloat(x float64) float64 {
+	x = math.Abs(x)
+	if x > 700 {
+		return 2 * math.Exp(-x)
+	}
+	return 1 / math.Cosh(x)
 }
 
 // intPowFloat returns v^n for n ≥ 0 by repeated multiplication.
@@ -351,11 +410,25 @@ func (m *planModel) trunc(h float64, n int64) float64 {
 		}
 		return m.truncAt(h, n, t)
 	}
-	a := m.truncAt(h, n, -h/2)
-	b := m.truncAt(h, n, h/2)
-	c := m.truncAt(h, n, 0)
-	return math.Max(a, math.Max(b, c))
+	if m.monotone {
+		// Tails that decrease away from the centre are worst at the ends
+		// of the shift range; the middle covers a maximum inside.
+		a := m.truncAt(h, n, -h/2)
+		b := m.truncAt(h, n, h/2)
+		c := m.truncAt(h, n, 0)
+		return math.Max(a, math.Max(b, c))
+	}
+	worst := 0.0
+	for i := 0; i <= oscillatingShifts; i++ {
+		t := h * (float64(i)/oscillatingShifts - 0.5)
+		worst = math.Max(worst, m.truncAt(h, n, t))
+	}
+	return worst
 }
+
+// oscillatingShifts is the number of pieces the shift range is sampled in
+// for functions whose modulus may oscillate.
+const oscillatingShifts = 16
 
 // truncAt is the truncation for a window centred at center + t: the
 // omitted samples lie at center + t ± h·((N+1)/2 + i), i ≥ 0.
