@@ -264,7 +264,12 @@ func (p *planner1) hRes(n int64) float64 {
 	if p.req.Resolution <= 0 {
 		return 0
 	}
-	return 2 * math.Pi / (p.req.Resolution * float64(n))
+	span := 2 * math.Pi / p.req.Resolution
+	h := span / float64(n)
+	for float64(n)*h < span {
+		h = nextUp(h)
+	}
+	return h
 }
 
 // stepForAlias returns about the largest step h whose modelled aliasing is
