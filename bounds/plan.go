@@ -433,6 +433,11 @@ func (p *planner1) towardEnd(f func(float64) float64, a, b, fb, enough float64) 
 		if fm < fb {
 			return p.brent(f, a, m, b, fm, enough)
 		}
+		// A feasibility question is settled when the values keep rising
+		// away from an end that already misses the target.
+		if enough > 0 && fb > enough && i >= 2 {
+			break
+		}
 		a = m
 	}
 	return b, fb
@@ -454,8 +459,13 @@ func (p *planner1) brent(f func(float64) float64, a, b, c, fb float64, enough fl
 		if fx <= enough {
 			break
 		}
+		// A feasibility question (enough > 0) is settled once the
+		// bracket is narrow and the least value well above the target.
+		if enough > 0 && fx > 2*enough && hi-lo < 1e-3 {
+			break
+		}
 		m := 0.5 * (lo + hi)
-		tol1 := 1e-7 + 1e-9*math.Abs(x)
+		tol1 := 1e-6 + 1e-9*math.Abs(x)
 		if math.Abs(x-m) <= 2*tol1-0.5*(hi-lo) {
 			break
 		}
