@@ -244,7 +244,9 @@ func newPlanner1(ctx context.Context, req PlanRequest) *planner1 {
 		m.val, m.absTr, m.tr = pointEvaluators(req.Family)
 		switch req.Family.(type) {
 		case GaussianFamily, ExponentialFamily, LorentzianFamily, SechFamily, SechSquaredFamily, BSplineFamily:
-			m.monotone = true
+			// Even about 0, where their envelopes are centred, and
+			// decreasing in |x|.
+			m.monotone, m.even = true, m.center == 0
 		}
 	}
 	b := req.Band

@@ -33,6 +33,7 @@ type planModel struct {
 	capped   float64 // largest remainder accepted only because a term limit was hit
 	aliasCap int     // term cap of the alias sums (modelTerms when 0)
 	monotone bool    // |f| is known to decrease away from the centre
+	even     bool    // f is known to be even about the centre
 	sH, sVal float64 // the last step and its window-sum bound S
 	// Weights of the aliasing and the truncation in the total, and whether
 	// the rounding is left out (an axis of an n-D plan: PlanGridND weighs
@@ -412,11 +413,14 @@ func (m *planModel) trunc(h float64, n int64) float64 {
 	}
 	if m.monotone {
 		// Tails that decrease away from the centre are worst at the ends
-		// of the shift range; the middle covers a maximum inside.
-		a := m.truncAt(h, n, -h/2)
+		// of the shift range; the middle covers a maximum inside. For an
+		// even function the two ends mirror each other.
 		b := m.truncAt(h, n, h/2)
 		c := m.truncAt(h, n, 0)
-		return math.Max(a, math.Max(b, c))
+		if !m.even {
+			b = math.Max(b, m.truncAt(h, n, -h/2))
+		}
+		return math.Max(b, c)
 	}
 	worst := 0.0
 	for i := 0; i <= oscillatingShifts; i++ {
@@ -439,20 +443,27 @@ func (m *planModel) truncAt(h float64, n int64, t float64) float64 {
 	if m.val == nil {
 		return h * (envRay(m.spatial, xr, 1, h) + envRay(m.spatial, xl, -1, h))
 	}
-	// The first pair is always summed (the certificate does so unless the
-	// whole truncation is negligible).
+	// As in the certificate (absTruncation): the first pair is always
+	// summed, and the count of explicit pairs doubles until the envelope's
+	// remainder beyond them meets the goal.
+	rem := func(k int) float64 {
+		d := float64(k) * h
+		return h * (envRay(m.spatial, xr+d, 1, h) + envRay(m.spatial, xl-d, -1, h))
+	}
 	sum := 0.0
-	for i := 0; ; i++ {
-		sum += h * (m.val(xr) + m.val(xl))
-		xr += h
-		xl -= h
-		rem := h * (envRay(m.spatial, xr, 1, h) + envRay(m.spatial, xl, -1, h))
-		if rem == 0 || rem <= m.remGoal || rem <= 0x1p-60*sum {
-			return sum + rem
+	done := 0
+	for k := 1; ; k *= 2 {
+		for ; done < k; done++ {
+			d := float64(done) * h
+			sum += h * (m.val(xr+d) + m.val(xl-d))
 		}
-		if i >= modelTerms {
-			m.capped = math.Max(m.capped, rem)
-			return sum + rem
+		r := rem(k)
+		if r == 0 || r <= m.remGoal || r <= 0x1p-60*sum {
+			return sum + r
+		}
+		if k >= modelTerms {
+			m.capped = math.Max(m.capped, r)
+			return sum + r
 		}
 	}
 }
