@@ -113,8 +113,8 @@ type aliasSummer struct {
 }
 
 // newSummer returns a summer for f on g at frequencies xi and shifts shift.
-func newSummer(ctx context.Context, f Family, g Grid, xi, shift Interval, abs bool, set Settings) *aliasSummer {
-	return &aliasSummer{ctx: ctx, f: f, g: g, xi: xi, shift: shift, abs: abs, set: set,
+func newSummer(ctx context.Context, f Family, g Grid, xi, shift Interval, abs bool, set Settings) aliasSummer {
+	return aliasSummer{ctx: ctx, f: f, g: g, xi: xi, shift: shift, abs: abs, set: set,
 		spec: f.Spectral(), spat: f.Spatial()}
 }
 
@@ -303,7 +303,12 @@ func (s *aliasSummer) chooseSide(F Complex, P Interval) (Side, int64) {
 func (s *aliasSummer) spectralTail(P Interval, L int64) float64 {
 	spec := s.spec
 	next := P.Scale(float64(L + 1))
-	return addUp(spec.RayTail(s.xi.Add(next), 1, P.Lo), spec.RayTail(s.xi.Sub(next), -1, P.Lo))
+	right := spec.RayTail(s.xi.Add(next), 1, P.Lo)
+	if s.xi.Lo == 0 && s.xi.Hi == 0 && spec.centred() {
+		// At ξ = 0 an envelope centred at 0 sees both rays alike.
+		return mulUp(2, right)
+	}
+	return addUp(right, spec.RayTail(s.xi.Sub(next), -1, P.Lo))
 }
 
 // firstCopies returns spectralEstimate(P, 0), computed once per summer.

@@ -473,3 +473,14 @@ func (e Envelope) RayEstimate(x0 float64, dir int, h float64) float64 {
 	}
 	return s
 }
+
+// centred reports whether every term is centred at 0, so that the envelope
+// is even.
+func (e Envelope) centred() bool {
+	for _, t := range e {
+		if t.Center != 0 {
+			return false
+		}
+	}
+	return true
+}
