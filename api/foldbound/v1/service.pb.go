@@ -129,7 +129,12 @@ type AliasSumResponse struct {
 	// The convention the numbers are in.
 	Convention *ConventionUsed `protobuf:"bytes,7,opt,name=convention,proto3" json:"convention,omitempty"`
 	// The family as the engine understood it, e.g. "gaussian(sigma=1)".
-	Family        string `protobuf:"bytes,8,opt,name=family,proto3" json:"family,omitempty"`
+	Family string `protobuf:"bytes,8,opt,name=family,proto3" json:"family,omitempty"`
+	// The angular frequency per axis the sums were computed at. In the
+	// ordinary convention it is 2 pi nu rounded to the nearest float64
+	// (relative difference at most 2^-53); the enclosures are certified for
+	// this frequency.
+	XiAngular     []float64 `protobuf:"fixed64,9,rep,packed,name=xi_angular,json=xiAngular,proto3" json:"xi_angular,omitempty"`
 	unknownFields protoimpl.UnknownFields
 	sizeCache     protoimpl.SizeCache
 }
@@ -218,6 +223,13 @@ func (x *AliasSumResponse) GetFamily() string {
 		return x.Family
 	}
 	return ""
+}
+
+func (x *AliasSumResponse) GetXiAngular() []float64 {
+	if x != nil {
+		return x.XiAngular
+	}
+	return nil
 }
 
 // ErrorBudgetRequest asks for a certified, itemised bound on the error of
@@ -1095,7 +1107,7 @@ const file_foldbound_v1_service_proto_rawDesc = "" +
 	"\n" +
 	"convention\x18\x04 \x01(\x0e2\x18.foldbound.v1.ConventionR\n" +
 	"convention\x122\n" +
-	"\bsettings\x18\x05 \x01(\v2\x16.foldbound.v1.SettingsR\bsettings\"\xad\x03\n" +
+	"\bsettings\x18\x05 \x01(\v2\x16.foldbound.v1.SettingsR\bsettings\"\xcc\x03\n" +
 	"\x10AliasSumResponse\x127\n" +
 	"\asampled\x18\x01 \x01(\v2\x1d.foldbound.v1.ComplexIntervalR\asampled\x123\n" +
 	"\x05exact\x18\x02 \x01(\v2\x1d.foldbound.v1.ComplexIntervalR\x05exact\x123\n" +
@@ -1108,7 +1120,9 @@ const file_foldbound_v1_service_proto_rawDesc = "" +
 	"\n" +
 	"convention\x18\a \x01(\v2\x1c.foldbound.v1.ConventionUsedR\n" +
 	"convention\x12\x16\n" +
-	"\x06family\x18\b \x01(\tR\x06family\"\xfc\x02\n" +
+	"\x06family\x18\b \x01(\tR\x06family\x12\x1d\n" +
+	"\n" +
+	"xi_angular\x18\t \x03(\x01R\txiAngular\"\xfc\x02\n" +
 	"\x12ErrorBudgetRequest\x12.\n" +
 	"\x06family\x18\x01 \x01(\v2\x14.foldbound.v1.FamilyH\x00R\x06family\x127\n" +
 	"\tenvelopes\x18\x02 \x01(\v2\x17.foldbound.v1.EnvelopesH\x00R\tenvelopes\x12(\n" +

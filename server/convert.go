@@ -1,0 +1,163 @@
+package server
+
+import (
+	"math"
+
+	pb "foldbound/api/foldbound/v1"
+	"foldbound/bounds"
+)
+
+// This file converts validated wire requests to engine values and engine
+// results back to wire messages. It assumes the checks of validate.go have
+// passed.
+
+// kindName returns the name of the family kind set in f, e.g. "gaussian".
+func kindName(f *pb.Family) string {
+	m := f.ProtoReflect()
+	if fd := m.WhichOneof(m.Descriptor().Oneofs().ByName("kind")); fd != nil {
+		return string(fd.Name())
+	}
+	return "kind"
+}
+
+// notInEngine reports a family kind that the engine of this build lacks.
+func notInEngine(path string, f *pb.Family) error {
+	return &unimplementedError{field: path + "." + kindName(f), what: "this family is not available in this server's engine yet"}
+}
+
+// family1D converts a validated one-dimensional family tree.
+func family1D(path string, f *pb.Family) (bounds.Family, error) {
+	switch k := f.GetKind().(type) {
+	case *pb.Family_Gaussian:
+		return bounds.GaussianFamily{Sigma: k.Gaussian.GetSigma()}, nil
+	}
+	return nil, notInEngine(path, f)
+}
+
+// engineGrid converts a validated grid.
+func engineGrid(g *pb.Grid) bounds.Grid {
+	return bounds.Grid{Step: g.GetStep(), Shift: g.GetShift(), Count: g.GetCount()}
+}
+
+func engineConvention(c pb.Convention) bounds.Convention {
+	switch c {
+	case pb.Convention_CONVENTION_UNITARY:
+		return bounds.Unitary
+	case pb.Convention_CONVENTION_ORDINARY:
+		return bounds.Ordinary
+	}
+	return bounds.Angular
+}
+
+func wireConvention(c bounds.Convention) *pb.ConventionUsed {
+	u := &pb.ConventionUsed{Formula: c.Formula(), FrequencyUnit: "radians per length unit"}
+	switch c {
+	case bounds.Unitary:
+		u.Convention = pb.Convention_CONVENTION_UNITARY
+	case bounds.Ordinary:
+		u.Convention = pb.Convention_CONVENTION_ORDINARY
+		u.FrequencyUnit = "cycles per length unit"
+	default:
+		u.Convention = pb.Convention_CONVENTION_ANGULAR
+	}
+	return u
+}
+
+// angular converts a frequency given in convention c to the float64
+// angular frequency the engine is called with: exact for the angular
+// conventions, 2πν rounded to nearest for the ordinary one.
+func angular(c bounds.Convention, v float64) float64 {
+	x := c.ToAngular(v)
+	if x.Lo == x.Hi {
+		return x.Lo
+	}
+	return x.Mid()
+}
+
+// engineSettings converts validated settings, applying the server's work
+// limits: 0 becomes DefaultTerms, values above MaxTerms are lowered.
+func (lim Limits) engineSettings(s *pb.Settings) bounds.Settings {
+	n := s.GetMaxTerms()
+	switch {
+	case n == 0:
+		n = lim.DefaultTerms
+	case n > lim.MaxTerms:
+		n = lim.MaxTerms
+	}
+	side := bounds.AutoSide
+	switch s.GetSide() {
+	case pb.Side_SIDE_SPATIAL:
+		side = bounds.SpatialSide
+	case pb.Side_SIDE_SPECTRAL:
+		side = bounds.SpectralSide
+	}
+	return bounds.Settings{Tol: s.GetTol(), MaxTerms: n, Side: side}
+}
+
+func wireSide(s bounds.Side) pb.Side {
+	switch s {
+	case bounds.SpatialSide:
+		return pb.Side_SIDE_SPATIAL
+	case bounds.SpectralSide:
+		return pb.Side_SIDE_SPECTRAL
+	}
+	return pb.Side_SIDE_UNSPECIFIED
+}
+
+// outputs rescales engine results (angular convention) to the request's
+// convention in n dimensions.
+type outputs struct {
+	scale bounds.Interval
+}
+
+func newOutputs(c bounds.Convention, n int) outputs {
+	return outputs{scale: c.OutputScale(n)}
+}
+
+func (o outputs) complex(z bounds.Complex) *pb.ComplexInterval {
+	z = z.MulReal(o.scale)
+	return &pb.ComplexInterval{
+		Re: &pb.Interval{Lo: z.Re.Lo, Hi: z.Re.Hi},
+		Im: &pb.Interval{Lo: z.Im.Lo, Hi: z.Im.Hi},
+	}
+}
+
+// bound rescales an upper bound, rounding up.
+func (o outputs) bound(v float64) float64 {
+	if v == 0 {
+		return 0
+	}
+	return bounds.Point(v).Mul(o.scale).Hi
+}
+
+func (o outputs) method(m bounds.Method, maxTerms int64) *pb.Method {
+	return &pb.Method{
+		Side:            wireSide(m.Side),
+		AliasTerms:      m.AliasTerms,
+		TruncationTerms: m.TruncationTerms,
+		Remainder:       o.bound(m.Remainder),
+		RemainderFrom:   m.RemainderFrom,
+		MaxTerms:        maxTerms,
+	}
+}
+
+func (o outputs) sampledSum(r bounds.SampledSum) *pb.AliasSumResponse {
+	return &pb.AliasSumResponse{
+		Sampled:    o.complex(r.Sampled),
+		Exact:      o.complex(r.Exact),
+		Error:      o.complex(r.Error),
+		Alias:      o.complex(r.Alias),
+		Truncation: o.complex(r.Truncation),
+	}
+}
+
+// finiteResult reports whether every float of a result is finite; the
+// engine promises it, and the server checks before answering.
+func finiteResult(vs ...float64) bool {
+	for _, v := range vs {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return false
+		}
+	}
+	return true
+}

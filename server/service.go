@@ -1,0 +1,95 @@
+package server
+
+import (
+	"context"
+
+	"github.com/rs/zerolog"
+
+	pb "foldbound/api/foldbound/v1"
+	"foldbound/bounds"
+)
+
+// service implements foldbound.v1.SamplingService. It is stateless: the
+// limits and the logger are fixed at construction.
+type service struct {
+	pb.UnimplementedSamplingServiceServer
+	lim Limits
+	log zerolog.Logger
+}
+
+var _ pb.SamplingServiceServer = (*service)(nil)
+
+// AliasSum implements SamplingService.AliasSum.
+func (s *service) AliasSum(ctx context.Context, req *pb.AliasSumRequest) (*pb.AliasSumResponse, error) {
+	res, err := s.aliasSum(ctx, req)
+	if err != nil {
+		return nil, toStatus(err).Err()
+	}
+	return res, nil
+}
+
+// ErrorBudget implements SamplingService.ErrorBudget.
+func (s *service) ErrorBudget(ctx context.Context, req *pb.ErrorBudgetRequest) (*pb.ErrorBudgetResponse, error) {
+	res, err := s.errorBudget(ctx, req)
+	if err != nil {
+		return nil, toStatus(err).Err()
+	}
+	return res, nil
+}
+
+// PlanGrid implements SamplingService.PlanGrid.
+func (s *service) PlanGrid(ctx context.Context, req *pb.PlanGridRequest) (*pb.PlanGridResponse, error) {
+	res, err := s.planGrid(ctx, req)
+	if err != nil {
+		return nil, toStatus(err).Err()
+	}
+	return res, nil
+}
+
+// aliasSum answers an AliasSumRequest; errors are mapped by the caller.
+func (s *service) aliasSum(ctx context.Context, req *pb.AliasSumRequest) (*pb.AliasSumResponse, error) {
+	dim, err := s.lim.checkAliasSum(req)
+	if err != nil {
+		return nil, err
+	}
+	conv := engineConvention(req.GetConvention())
+	set := s.lim.engineSettings(req.GetSettings())
+	xi := make([]float64, dim)
+	for i, v := range req.GetXi() {
+		xi[i] = angular(conv, v)
+	}
+	if dim != 1 {
+		return nil, &unimplementedError{field: "family." + kindName(req.GetFamily()), what: "n-dimensional alias sums are not available in this server's engine yet"}
+	}
+	f, err := family1D("family", req.GetFamily())
+	if err != nil {
+		return nil, err
+	}
+	r, err := bounds.AliasSum(ctx, f, engineGrid(req.GetGrids()[0]), xi[0], set)
+	if err != nil {
+		return nil, err
+	}
+	out := newOutputs(conv, dim)
+	res := out.sampledSum(r)
+	res.Method = out.method(r.Method, set.MaxTerms)
+	res.Convention = wireConvention(conv)
+	res.Family = f.String()
+	res.XiAngular = xi
+	return res, nil
+}
+
+// errorBudget answers an ErrorBudgetRequest.
+func (s *service) errorBudget(ctx context.Context, req *pb.ErrorBudgetRequest) (*pb.ErrorBudgetResponse, error) {
+	if _, err := s.lim.checkErrorBudget(req); err != nil {
+		return nil, err
+	}
+	return nil, &unimplementedError{what: "ErrorBudget: the engine's error-budget call is not in this build yet"}
+}
+
+// planGrid answers a PlanGridRequest.
+func (s *service) planGrid(ctx context.Context, req *pb.PlanGridRequest) (*pb.PlanGridResponse, error) {
+	if _, err := s.lim.checkPlanGrid(req); err != nil {
+		return nil, err
+	}
+	return nil, &unimplementedError{what: "PlanGrid: the engine's grid planner is not in this build yet"}
+}

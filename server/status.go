@@ -1,0 +1,142 @@
+package server
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"strings"
+
+	"google.golang.org/genproto/googleapis/rpc/errdetails"
+	"google.golang.org/grpc/codes"
+	"google.golang.org/grpc/status"
+
+	pb "foldbound/api/foldbound/v1"
+	"foldbound/bounds"
+)
+
+// violation is a request field that breaks a rule.
+type violation struct {
+	Field string // dotted path, e.g. "family.gaussian.sigma"
+	Rule  string // e.g. "must be finite and > 0, got NaN"
+}
+
+// requestError reports request fields that break the service's rules,
+// with the code they earn: InvalidArgument for rules of the contract,
+// ResourceExhausted for this server's configurable limits.
+type requestError struct {
+	code       codes.Code
+	violations []violation
+}
+
+func (e *requestError) Error() string {
+	v := e.violations[0]
+	msg := v.Field + ": " + v.Rule
+	if n := len(e.violations) - 1; n == 1 {
+		msg += " (and 1 more violation)"
+	} else if n > 1 {
+		msg += fmt.Sprintf(" (and %d more violations)", n)
+	}
+	return msg
+}
+
+// overLimit returns a requestError for a field over one of this server's
+// limits.
+func overLimit(field, format string, args ...any) error {
+	return &requestError{code: codes.ResourceExhausted, violations: []violation{{field, fmt.Sprintf(format, args...)}}}
+}
+
+// unimplementedError marks a request the engine of this build cannot
+// answer yet.
+type unimplementedError struct {
+	field string // the field that asks for it, or "" for a whole call
+	what  string
+}
+
+func (e *unimplementedError) Error() string {
+	if e.field == "" {
+		return e.what
+	}
+	return e.field + ": " + e.what
+}
+
+// toStatus maps any error of validation, conversion or the engine to a
+// gRPC status. It is the only place in the package that chooses codes.
+//
+//	*requestError            its code (InvalidArgument or ResourceExhausted)
+//	*unimplementedError      Unimplemented
+//	context.DeadlineExceeded DeadlineExceeded
+//	context.Canceled         Canceled
+//	bounds.ErrInvalid        InvalidArgument (field from *bounds.ParamError)
+//	bounds.ErrWorkLimit      ResourceExhausted
+//	bounds.ErrInfeasible     OutOfRange
+//	bounds.ErrNotFinite      OutOfRange
+//	anything else            Internal
+//
+// Field problems carry a google.rpc.BadRequest detail.
+func toStatus(err error) *status.Status {
+	if err == nil {
+		return status.New(codes.OK, "")
+	}
+	if st, ok := status.FromError(err); ok {
+		return st // already a status (e.g. from an interceptor)
+	}
+	var (
+		re *requestError
+		ue *unimplementedError
+		pe *bounds.ParamError
+	)
+	switch {
+	case errors.As(err, &re):
+		return withViolations(status.New(re.code, re.Error()), re.violations)
+	case errors.As(err, &ue):
+		return status.New(codes.Unimplemented, ue.Error())
+	case errors.Is(err, context.DeadlineExceeded):
+		return status.New(codes.DeadlineExceeded, "deadline exceeded before the computation finished: "+err.Error())
+	case errors.Is(err, context.Canceled):
+		return status.New(codes.Canceled, "call cancelled: "+err.Error())
+	}
+	code := codes.Internal
+	switch {
+	case errors.Is(err, bounds.ErrInvalid):
+		code = codes.InvalidArgument
+	case errors.Is(err, bounds.ErrWorkLimit):
+		code = codes.ResourceExhausted
+	case errors.Is(err, bounds.ErrInfeasible), errors.Is(err, bounds.ErrNotFinite):
+		code = codes.OutOfRange
+	}
+	if code == codes.Internal {
+		return status.New(codes.Internal, "internal error: "+err.Error())
+	}
+	msg := strings.TrimPrefix(err.Error(), "bounds: ")
+	if errors.As(err, &pe) {
+		return withViolations(status.New(code, msg), []violation{{pe.Param, pe.Reason}})
+	}
+	return status.New(code, msg)
+}
+
+// withViolations attaches a google.rpc.BadRequest detail listing vs.
+func withViolations(st *status.Status, vs []violation) *status.Status {
+	br := &errdetails.BadRequest{}
+	for _, v := range vs {
+		br.FieldViolations = append(br.FieldViolations, &errdetails.BadRequest_FieldViolation{
+			Field: v.Field, Description: v.Rule,
+		})
+	}
+	if d, err := st.WithDetails(br); err == nil {
+		return d
+	}
+	return st
+}
+
+// itemError converts a status to the error of a Batch item.
+func itemError(st *status.Status) *pb.ItemError {
+	e := &pb.ItemError{Code: int32(st.Code()), Message: st.Message()}
+	for _, d := range st.Details() {
+		if br, ok := d.(*errdetails.BadRequest); ok {
+			for _, v := range br.GetFieldViolations() {
+				e.FieldViolations = append(e.FieldViolations, &pb.FieldViolation{Field: v.GetField(), Description: v.GetDescription()})
+			}
+		}
+	}
+	return e
+}
