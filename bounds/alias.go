@@ -64,7 +64,7 @@ func AliasSum(ctx context.Context, f Family, g Grid, xi float64, set Settings) (
 	if err := checkAliasArgs(f, g, xi, set); err != nil {
 		return SampledSum{}, err
 	}
-	s := aliasSummer{ctx: ctx, f: f, g: g, xi: Point(xi), set: set}
+	s := aliasSummer{ctx: ctx, f: f, g: g, xi: Point(xi), shift: Point(g.Shift), set: set}
 	res, err := s.run()
 	if err != nil {
 		return SampledSum{}, err
@@ -88,14 +88,25 @@ func checkAliasArgs(f Family, g Grid, xi float64, set Settings) error {
 	return set.Validate()
 }
 
-// aliasSummer holds the state of one AliasSum call.
+// aliasSummer holds the state of one alias-sum computation. The frequency
+// and the shift are intervals: an enclosure computed with them holds for
+// every frequency and shift in them. In abs mode the summer adds moduli of
+// the terms instead of the terms, which bounds the sums for every phase,
+// that is, for every shift.
 type aliasSummer struct {
 	ctx   context.Context
 	f     Family
-	g     Grid
-	xi    Interval
+	g     Grid     // step and count; the shift is in shift
+	xi    Interval // ξ
+	shift Interval // s
+	abs   bool
 	set   Settings
 	terms int64 // terms summed so far, against the work limit
+}
+
+// at encloses the sample positions s + h·k for every s in the shift.
+func (s *aliasSummer) at(k int64) Interval {
+	return Point(s.g.Step).Scale(float64(k)).Add(s.shift)
 }
 
 // goal returns the remainder we accept for a sum whose magnitude is about
@@ -250,7 +261,7 @@ func (s *aliasSummer) spectralAlias(P Interval, F Complex) (Complex, Method, err
 	}
 	// Phase e^{i2πs/h}: reduce s/h modulo 1 first so that large shifts keep
 	// an accurate phase.
-	u := Point(s.g.Shift).Div(Point(s.g.Step))
+	u := s.shift.Div(Point(s.g.Step))
 	u = u.AddFloat(-math.Round(u.Mid()))
 	theta := TwoPi.Mul(u)
 	zeroShift := u.Lo == 0 && u.Hi == 0
@@ -266,9 +277,12 @@ func (s *aliasSummer) spectralAlias(P Interval, F Complex) (Complex, Method, err
 		lp := P.Scale(float64(L))
 		right := s.f.Transform(s.xi.Add(lp))
 		left := s.f.Transform(s.xi.Sub(lp))
-		if zeroShift {
+		switch {
+		case s.abs:
+			sum = sum.Add(RealC(right.Abs().Add(left.Abs())))
+		case zeroShift:
 			sum = sum.Add(right).Add(left)
-		} else {
+		default:
 			ph := Cis(theta.Scale(float64(L)))
 			sum = sum.Add(right.Mul(ph)).Add(left.Mul(ph.Conj()))
 		}
@@ -280,8 +294,11 @@ func (s *aliasSummer) spectralAlias(P Interval, F Complex) (Complex, Method, err
 
 // term encloses h·f(x_k)·e^{-iξx_k}.
 func (s *aliasSummer) term(k int64) Complex {
-	x := s.g.At(k)
+	x := s.at(k)
 	v := s.f.Value(x)
+	if s.abs {
+		return RealC(v.Abs().Scale(s.g.Step))
+	}
 	if !(s.xi.Lo == 0 && s.xi.Hi == 0) {
 		v = v.Mul(Cis(s.xi.Mul(x).Neg()))
 	}
@@ -293,8 +310,8 @@ func (s *aliasSummer) term(k int64) Complex {
 func (s *aliasSummer) spatialRays(lo, hi int64) float64 {
 	env := s.f.Spatial()
 	h := s.g.Step
-	r := env.RayTail(s.g.At(hi+1), 1, h)
-	l := env.RayTail(s.g.At(lo-1), -1, h)
+	r := env.RayTail(s.at(hi+1), 1, h)
+	l := env.RayTail(s.at(lo-1), -1, h)
 	return mulUp(h, addUp(r, l))
 }
 
@@ -322,8 +339,8 @@ func (s *aliasSummer) spatialWindow(goal float64) (lo, hi int64, ok bool) {
 	}
 	h := s.g.Step
 	limit := float64(s.set.maxTerms())
-	base0 := math.Floor((cmin - s.g.Shift) / h)
-	base1 := math.Ceil((cmax - s.g.Shift) / h)
+	base0 := math.Floor((cmin - s.shift.Hi) / h)
+	base1 := math.Ceil((cmax - s.shift.Lo) / h)
 	if math.Abs(base0) > 1<<62 || math.Abs(base1) > 1<<62 {
 		return 0, 0, false
 	}

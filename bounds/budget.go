@@ -1,0 +1,439 @@
+package bounds
+
+import (
+	"context"
+	"fmt"
+	"math"
+)
+
+// Band is a set of angular frequencies |ξ - Center| ≤ HalfWidth. A zero
+// HalfWidth is the single frequency Center; the integral is Band{}.
+type Band struct {
+	Center    float64
+	HalfWidth float64
+}
+
+// Validate checks the band; path names it in errors.
+func (b Band) Validate(path string) error {
+	if !finite(b.Center) {
+		return invalidf(path+".center", "must be finite, got %g", b.Center)
+	}
+	if !finite(b.HalfWidth) || b.HalfWidth < 0 {
+		return invalidf(path+".half_width", "must be finite and ≥ 0, got %g", b.HalfWidth)
+	}
+	return nil
+}
+
+// Interval returns the band as an enclosure of its frequencies.
+func (b Band) Interval() Interval {
+	return Interval{addDown(b.Center, -b.HalfWidth), addUp(b.Center, b.HalfWidth)}
+}
+
+// BudgetOptions qualify an error budget.
+type BudgetOptions struct {
+	// AnyShift asks for a budget valid for every shift in
+	// [Shift - Step/2, Shift + Step/2], that is, wherever the samples fall
+	// within a cell, instead of for the grid's Shift only.
+	AnyShift bool
+	// SampleUlps is the error of each computed sample value f(x_k), in units
+	// of the unit roundoff u = 2⁻⁵³; 0 means 1 (correctly rounded samples).
+	SampleUlps float64
+	Settings
+}
+
+// Budget is an itemised, certified bound on the error of a sampled sum:
+// |computed T - F(ξ)| ≤ Total for every frequency of the band (and every
+// shift, with AnyShift).
+type Budget struct {
+	// Aliasing bounds |Σ_{l≠0} F(ξ + 2πl/h) e^{i2πls/h}|, the error of the
+	// infinite grid.
+	Aliasing float64
+	// Truncation bounds |h Σ_{k omitted} f(x_k) e^{-iξx_k}|, the error of
+	// cutting the grid to its Count samples (0 for an infinite grid).
+	Truncation float64
+	// Rounding bounds the floating-point error of computing the N-term sum
+	// in double precision (0 for an infinite grid, which cannot be summed).
+	Rounding float64
+	// Total is the sum of the three, rounded upward.
+	Total float64
+	// Exact is true when aliasing and truncation come from enclosures of
+	// the exact error terms of a family, false when they come from
+	// envelopes.
+	Exact bool
+	// Pieces is the number of frequency and shift subintervals the sups
+	// were taken over (1 for a single frequency and shift).
+	Pieces int
+}
+
+func (b *Budget) total() {
+	b.Total = addUp(addUp(b.Aliasing, b.Truncation), b.Rounding)
+}
+
+const unitRoundoff = 0x1p-53
+
+// roundingBound bounds the floating-point error of computing
+// T = h Σ_k f_k e^{-iξx_k} over N samples by recursive summation:
+//
+//	|fl(T) - T| ≤ (γ_{N+3} + c_f·u + u·(|ξ|·X + 4))·S,   γ_n = nu/(1-nu),
+//
+// where S = h Σ_k |f(x_k)|, X = max_k |x_k|, c_f·u bounds the relative error
+// of each sample, u(|ξ|X + 4) that of each phase factor e^{-iξx_k} (the
+// rounding of ξx_k, and a few ulps for sin, cos and the complex product),
+// and γ_{N+3} the N-1 additions plus the products by h and the phase
+// (Higham, Accuracy and Stability of Numerical Algorithms, 2nd ed., 2002,
+// §3.1 and §4.2, from memory).
+func roundingBound(n int64, sampleUlps, xiMag, xMag, S float64) float64 {
+	if n == 0 || S == 0 {
+		return 0
+	}
+	nu := Point(float64(n + 3)).Scale(unitRoundoff)
+	gamma := nu.Div(Point(1).Sub(nu))
+	phase := Point(xiMag).Mul(Point(xMag)).AddFloat(4).Scale(unitRoundoff)
+	if xiMag == 0 {
+		phase = Point(0)
+	}
+	rel := gamma.Add(Point(sampleUlps * unitRoundoff)).Add(phase)
+	return rel.Mul(Point(S)).Hi
+}
+
+func (o BudgetOptions) sampleUlps() float64 {
+	if o.SampleUlps == 0 {
+		return 1
+	}
+	return o.SampleUlps
+}
+
+func (o BudgetOptions) validate() error {
+	if !finite(o.SampleUlps) || o.SampleUlps < 0 {
+		return invalidf("options.sample_ulps", "must be finite and ≥ 0, got %g", o.SampleUlps)
+	}
+	return o.Settings.Validate()
+}
+
+// shiftRange returns the shifts a budget covers.
+func shiftRange(g Grid, anyShift bool) Interval {
+	if !anyShift {
+		return Point(g.Shift)
+	}
+	return Interval{addDown(g.Shift, -g.Step/2), addUp(g.Shift, g.Step/2)}
+}
+
+// shiftPieces is the number of subintervals the shift range is cut into
+// when a truncation bound must hold for every shift: the sup of a sum over
+// a piece is bounded by the sum of its terms' sups, which overestimates by
+// little when the pieces are short.
+const shiftPieces = 16
+
+// windowSum bounds S = h Σ_{k in grid} |f(x_k)| through the spatial
+// envelope, for every shift in the range.
+func windowSum(env Envelope, g Grid, shifts Interval) float64 {
+	if g.Infinite() {
+		return 0
+	}
+	return mulUp(g.Step, env.LatticeSum(shifts, g.Step))
+}
+
+// maxAbsX bounds max_k |x_k| over the window for every shift.
+func maxAbsX(g Grid, shifts Interval) float64 {
+	lo, hi := g.Indices()
+	a := Point(g.Step).Scale(float64(lo)).Add(shifts)
+	b := Point(g.Step).Scale(float64(hi)).Add(shifts)
+	return math.Max(a.Mag(), b.Mag())
+}
+
+// EnvelopeBudget bounds the error of the sampled sum of any function whose
+// modulus and transform satisfy the given envelopes, |f| ≤ spatial and
+// |F| ≤ spectral, on grid g over the band (math.md, "Envelopes and their
+// bounds"):
+//
+//	aliasing    ≤ Σ_{l≠0} spectral(ξ + 2πl/h)        (any shift)
+//	truncation  ≤ h Σ_{k omitted} spatial(x_k)
+//	rounding    as for roundingBound, with S ≤ h Σ_{k∈Z} spatial(x_k)
+//
+// Each ray of omitted points or alias copies is bounded in closed form
+// (EnvelopeTerm.tail), with the nearest omitted points on either side at
+// their true distances from the centre, so shifted grids are bounded
+// correctly. Over a band and over shifts the bounds take their worst case.
+// Errors wrap ErrInvalid (a *ParamError names the field) when an envelope
+// is not summable on the side it is needed.
+func EnvelopeBudget(ctx context.Context, spatial, spectral Envelope, g Grid, band Band, opt BudgetOptions) (Budget, error) {
+	if err := ctx.Err(); err != nil {
+		return Budget{}, fmt.Errorf("bounds: envelope budget: %w", err)
+	}
+	if err := spatial.Validate("spatial"); err != nil {
+		return Budget{}, err
+	}
+	if err := spectral.Validate("spectral"); err != nil {
+		return Budget{}, err
+	}
+	if err := g.Validate("grid"); err != nil {
+		return Budget{}, err
+	}
+	if err := band.Validate("band"); err != nil {
+		return Budget{}, err
+	}
+	if err := opt.validate(); err != nil {
+		return Budget{}, err
+	}
+	xi := band.Interval()
+	P := TwoPi.Div(Point(g.Step))
+	var b Budget
+	// Over a band, the right-hand copies are worst at its upper end and the
+	// left-hand ones at its lower end; cutting the band into pieces takes
+	// the sup of their sum rather than the sum of their sups.
+	bandPieces := 1
+	if xi.Lo != xi.Hi {
+		bandPieces = envelopeBandPieces
+	}
+	for i := 0; i < bandPieces; i++ {
+		x := subinterval(xi, i, bandPieces)
+		a := addUp(spectral.RayTail(x.Add(P), 1, P.Lo), spectral.RayTail(x.Sub(P), -1, P.Lo))
+		b.Aliasing = math.Max(b.Aliasing, a)
+	}
+	b.Pieces = bandPieces
+	if math.IsInf(b.Aliasing, 1) {
+		return Budget{}, invalidf("spectral", "envelope is not summable over the alias copies (algebraic power must exceed 1)")
+	}
+	shifts := shiftRange(g, opt.AnyShift)
+	if !g.Infinite() {
+		lo, hi := g.Indices()
+		pieces := 1
+		if opt.AnyShift {
+			pieces = shiftPieces
+		}
+		for i := 0; i < pieces; i++ {
+			sh := subinterval(shifts, i, pieces)
+			xr := Point(g.Step).Scale(float64(hi + 1)).Add(sh)
+			xl := Point(g.Step).Scale(float64(lo - 1)).Add(sh)
+			t := mulUp(g.Step, addUp(spatial.RayTail(xr, 1, g.Step), spatial.RayTail(xl, -1, g.Step)))
+			b.Truncation = math.Max(b.Truncation, t)
+		}
+		b.Pieces = max(pieces, bandPieces)
+		if math.IsInf(b.Truncation, 1) {
+			return Budget{}, invalidf("spatial", "envelope is not summable over the omitted samples (algebraic power must exceed 1)")
+		}
+		S := windowSum(spatial, g, shifts)
+		b.Rounding = roundingBound(g.Count, opt.sampleUlps(), xi.Mag(), maxAbsX(g, shifts), S)
+	}
+	b.total()
+	if !finite(b.Total) {
+		return Budget{}, fmt.Errorf("bounds: envelope budget: %w", ErrNotFinite)
+	}
+	return b, nil
+}
+
+// envelopeBandPieces is the number of pieces a band is cut into for an
+// envelope's aliasing bound.
+const envelopeBandPieces = 16
+
+// subinterval returns piece i of n equal pieces of x, rounded outward.
+func subinterval(x Interval, i, n int) Interval {
+	if n == 1 {
+		return x
+	}
+	w := (x.Hi - x.Lo) / float64(n)
+	lo := x.Lo + w*float64(i)
+	hi := x.Lo + w*float64(i+1)
+	if i == 0 {
+		lo = x.Lo
+	} else {
+		lo = nextDown(lo)
+	}
+	if i == n-1 {
+		hi = x.Hi
+	} else {
+		hi = nextUp(hi)
+	}
+	return Interval{lo, hi}
+}
+
+// bandPieces limits the subdivision of a band when its sup is taken.
+const bandPieces = 64
+
+// FamilyBudget bounds the error of the sampled sum of the family f on grid
+// g over the band from enclosures of its exact error terms (see AliasSum):
+//
+//	aliasing    ≤ sup |Σ_{l≠0} F(ξ + 2πl/h) e^{i2πls/h}|, or, with
+//	              AnyShift, Σ_{l≠0} |F(ξ + 2πl/h)|, its sup over shifts;
+//	truncation  ≤ sup |h Σ_{k omitted} f(x_k) e^{-iξx_k}|, or, over a band
+//	              or with AnyShift, h Σ_{k omitted} |f(x_k)|;
+//	rounding    as for roundingBound.
+//
+// Over a band the sups are certified: the band is cut into subintervals,
+// each evaluated in interval arithmetic, and the subinterval with the
+// largest bound is bisected until the bound is within 1% of a value
+// attained at a point, or bandPieces subintervals are used.
+//
+// Errors are those of AliasSum.
+func FamilyBudget(ctx context.Context, f Family, g Grid, band Band, opt BudgetOptions) (Budget, error) {
+	if err := checkAliasArgs(f, g, band.Center, opt.Settings); err != nil {
+		return Budget{}, err
+	}
+	if err := band.Validate("band"); err != nil {
+		return Budget{}, err
+	}
+	if err := opt.validate(); err != nil {
+		return Budget{}, err
+	}
+	if err := ctx.Err(); err != nil {
+		return Budget{}, fmt.Errorf("bounds: family budget: %w", err)
+	}
+	shifts := shiftRange(g, opt.AnyShift)
+	fb := familyBudgeter{ctx: ctx, f: f, g: g, shifts: shifts, opt: opt}
+	var b Budget
+	var err error
+	if band.HalfWidth == 0 {
+		b, err = fb.at(band.Interval())
+		b.Pieces = fb.pieces
+	} else {
+		b, err = fb.overBand(band.Interval())
+	}
+	if err != nil {
+		return Budget{}, err
+	}
+	b.Exact = true
+	S := windowSum(f.Spatial(), g, shifts)
+	b.Rounding = roundingBound(g.Count, opt.sampleUlps(), band.Interval().Mag(), maxAbsX(g, shifts), S)
+	b.total()
+	if !finite(b.Total) {
+		return Budget{}, fmt.Errorf("bounds: family budget of %v: %w", f, ErrNotFinite)
+	}
+	return b, nil
+}
+
+type familyBudgeter struct {
+	ctx    context.Context
+	f      Family
+	g      Grid
+	shifts Interval
+	opt    BudgetOptions
+	pieces int
+}
+
+// at bounds the aliasing and truncation for every frequency in xi (a
+// single frequency or a short piece of a band).
+func (fb *familyBudgeter) at(xi Interval) (Budget, error) {
+	anyShift := fb.opt.AnyShift
+	wide := xi.Lo != xi.Hi
+	s := aliasSummer{ctx: fb.ctx, f: fb.f, g: fb.g, xi: xi, shift: fb.shifts, abs: anyShift, set: fb.opt.Settings}
+	F := fb.f.Transform(xi)
+	P := TwoPi.Div(Point(fb.g.Step))
+	side := fb.opt.Side
+	if side == AutoSide {
+		side = s.chooseSide(F, P)
+	}
+	var b Budget
+	if side == SpectralSide {
+		alias, _, err := s.spectralAlias(P, F)
+		if err != nil {
+			return Budget{}, err
+		}
+		b.Aliasing = alias.Mag()
+	} else {
+		// Spatial side: the error of the infinite grid is T∞ - F, taken at
+		// each shift piece.
+		pieces := 1
+		if anyShift {
+			pieces = shiftPieces
+		}
+		for i := 0; i < pieces; i++ {
+			sp := aliasSummer{ctx: fb.ctx, f: fb.f, g: Grid{Step: fb.g.Step}, xi: xi,
+				shift: subinterval(fb.shifts, i, pieces), set: fb.opt.Settings}
+			T, _, err := sp.spatialInfinite(F.Mag())
+			if err != nil {
+				return Budget{}, err
+			}
+			b.Aliasing = math.Max(b.Aliasing, T.Sub(F).Mag())
+		}
+	}
+	fb.pieces = 1
+	if !fb.g.Infinite() {
+		pieces := 1
+		if anyShift {
+			pieces = shiftPieces
+		}
+		for i := 0; i < pieces; i++ {
+			st := aliasSummer{ctx: fb.ctx, f: fb.f, g: fb.g, xi: xi,
+				shift: subinterval(fb.shifts, i, pieces), abs: anyShift || wide, set: fb.opt.Settings}
+			trunc, _, _, err := st.omittedSum(F.Mag())
+			if err != nil {
+				return Budget{}, err
+			}
+			b.Truncation = math.Max(b.Truncation, trunc.Mag())
+		}
+		fb.pieces = pieces
+	}
+	return b, nil
+}
+
+// overBand takes the sups of aliasing and truncation over the band by
+// branch and bound on the frequency.
+func (fb *familyBudgeter) overBand(band Interval) (Budget, error) {
+	type piece struct {
+		xi Interval
+		b  Budget
+	}
+	eval := func(xi Interval) (piece, error) {
+		b, err := fb.at(xi)
+		return piece{xi, b}, err
+	}
+	// A lower bound of the sup: the budget at a point is attained up to its
+	// own enclosure width.
+	lower := 0.0
+	point := func(x float64) error {
+		b, err := fb.at(Point(x))
+		if err != nil {
+			return err
+		}
+		lower = math.Max(lower, b.Aliasing+b.Truncation)
+		return nil
+	}
+	first, err := eval(band)
+	if err != nil {
+		return Budget{}, err
+	}
+	if err := point(band.Mid()); err != nil {
+		return Budget{}, err
+	}
+	pieces := []piece{first}
+	for len(pieces) < bandPieces {
+		if err := fb.ctx.Err(); err != nil {
+			return Budget{}, fmt.Errorf("bounds: family budget over a band: %w", err)
+		}
+		// The piece with the largest bound decides the sup.
+		worst := 0
+		for i, p := range pieces {
+			if p.b.Aliasing+p.b.Truncation > pieces[worst].b.Aliasing+pieces[worst].b.Truncation {
+				worst = i
+			}
+		}
+		w := pieces[worst]
+		if w.b.Aliasing+w.b.Truncation <= 1.01*lower {
+			break
+		}
+		m := w.xi.Mid()
+		l, err := eval(Interval{w.xi.Lo, m})
+		if err != nil {
+			return Budget{}, err
+		}
+		r, err := eval(Interval{m, w.xi.Hi})
+		if err != nil {
+			return Budget{}, err
+		}
+		if err := point(m); err != nil {
+			return Budget{}, err
+		}
+		pieces[worst] = l
+		pieces = append(pieces, r)
+	}
+	var b Budget
+	for _, p := range pieces {
+		b.Aliasing = math.Max(b.Aliasing, p.b.Aliasing)
+		b.Truncation = math.Max(b.Truncation, p.b.Truncation)
+	}
+	b.Pieces = len(pieces)
+	if fb.opt.AnyShift {
+		b.Pieces *= shiftPieces
+	}
+	return b, nil
+}
