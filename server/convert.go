@@ -161,3 +161,62 @@ func finiteResult(vs ...float64) bool {
 	}
 	return true
 }
+
+// engineEnvelope converts validated envelope terms.
+func engineEnvelope(ts []*pb.EnvelopeTerm) bounds.Envelope {
+	env := make(bounds.Envelope, len(ts))
+	for i, t := range ts {
+		var d bounds.Decay
+		switch t.GetDecay() {
+		case pb.Decay_DECAY_EXPONENTIAL:
+			d = bounds.Exponential
+		case pb.Decay_DECAY_GAUSSIAN:
+			d = bounds.Gaussian
+		case pb.Decay_DECAY_ALGEBRAIC:
+			d = bounds.Algebraic
+		case pb.Decay_DECAY_COMPACT:
+			d = bounds.Compact
+		}
+		env[i] = bounds.EnvelopeTerm{Decay: d, Amplitude: t.GetAmplitude(), Center: t.GetCenter(),
+			Plateau: t.GetPlateau(), Rate: t.GetRate(), Width: t.GetWidth(), Power: t.GetPower()}
+	}
+	return env
+}
+
+// engineBand converts axis i of a validated band given in convention c to
+// an angular band that contains it: exact in the angular conventions; in
+// the ordinary one a single frequency is 2πν rounded to nearest (as for
+// AliasSum) and a band's ends are rounded outward.
+func engineBand(c bounds.Convention, b *pb.Band, i int) bounds.Band {
+	var center, half float64
+	if cs := b.GetCenter(); len(cs) > i {
+		center = cs[i]
+	}
+	if hs := b.GetHalfWidth(); len(hs) > i {
+		half = hs[i]
+	}
+	if half == 0 {
+		return bounds.Band{Center: angular(c, center)}
+	}
+	lo, hi := c.ToAngular(center).Sub(c.ToAngular(half)), c.ToAngular(center).Add(c.ToAngular(half))
+	x := bounds.Interval{Lo: lo.Lo, Hi: hi.Hi}
+	m := x.Mid()
+	return bounds.Band{Center: m, HalfWidth: math.Max(bounds.Point(x.Hi).Sub(bounds.Point(m)).Hi, bounds.Point(m).Sub(bounds.Point(x.Lo)).Hi)}
+}
+
+// budget converts an engine budget to the request's convention.
+func (o outputs) budget(b bounds.Budget) *pb.ErrorBudget {
+	out := &pb.ErrorBudget{
+		Aliasing:   o.bound(b.Aliasing),
+		Truncation: o.bound(b.Truncation),
+		Rounding:   o.bound(b.Rounding),
+		Exact:      b.Exact,
+		Pieces:     int32(min(b.Pieces, math.MaxInt32)),
+	}
+	out.Total = o.bound(b.Total)
+	// The rescaled parts are rounded up one by one; keep total ≥ their sum.
+	if s := bounds.Point(out.Aliasing).Add(bounds.Point(out.Truncation)).Add(bounds.Point(out.Rounding)).Hi; s > out.Total {
+		out.Total = s
+	}
+	return out
+}

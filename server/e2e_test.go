@@ -136,12 +136,7 @@ func TestUnfinishedCallsSayUnimplemented(t *testing.T) {
 	addr, _ := startServer(t, server.Config{})
 	c := newClient(t, addr)
 	ctx := context.Background()
-	_, err := c.ErrorBudget(ctx, &pb.ErrorBudgetRequest{
-		Subject: &pb.ErrorBudgetRequest_Family{Family: client.Gaussian(1)}, Grids: []*pb.Grid{client.Grid(1, 0, 11)}})
-	if status.Code(err) != codes.Unimplemented {
-		t.Errorf("ErrorBudget: code %v, want Unimplemented: %v", status.Code(err), err)
-	}
-	_, err = c.PlanGrid(ctx, &pb.PlanGridRequest{Subject: &pb.PlanGridRequest_Family{Family: client.Gaussian(1)}, Tol: 1e-10})
+	_, err := c.PlanGrid(ctx, &pb.PlanGridRequest{Subject: &pb.PlanGridRequest_Family{Family: client.Gaussian(1)}, Tol: 1e-10})
 	if status.Code(err) != codes.Unimplemented {
 		t.Errorf("PlanGrid: code %v, want Unimplemented: %v", status.Code(err), err)
 	}

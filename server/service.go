@@ -67,7 +67,7 @@ func (s *service) aliasSum(ctx context.Context, req *pb.AliasSumRequest) (*pb.Al
 	}
 	r, err := bounds.AliasSum(ctx, f, engineGrid(req.GetGrids()[0]), xi[0], set)
 	if err != nil {
-		return nil, err
+		return nil, wirePaths(err)
 	}
 	out := newOutputs(conv, dim)
 	res := out.sampledSum(r)
@@ -80,10 +80,46 @@ func (s *service) aliasSum(ctx context.Context, req *pb.AliasSumRequest) (*pb.Al
 
 // errorBudget answers an ErrorBudgetRequest.
 func (s *service) errorBudget(ctx context.Context, req *pb.ErrorBudgetRequest) (*pb.ErrorBudgetResponse, error) {
-	if _, err := s.lim.checkErrorBudget(req); err != nil {
+	dim, err := s.lim.checkErrorBudget(req)
+	if err != nil {
 		return nil, err
 	}
-	return nil, &unimplementedError{what: "ErrorBudget: the engine's error-budget call is not in this build yet"}
+	if dim != 1 {
+		return nil, &unimplementedError{field: "family." + kindName(req.GetFamily()), what: "n-dimensional error budgets are not available in this server's engine yet"}
+	}
+	conv := engineConvention(req.GetConvention())
+	opt := bounds.BudgetOptions{AnyShift: req.GetWorstCaseShift(), SampleUlps: req.GetSampleUlps(), Settings: s.lim.engineSettings(req.GetSettings())}
+	g := engineGrid(req.GetGrids()[0])
+	band := engineBand(conv, req.GetFrequency(), 0)
+	var (
+		b       bounds.Budget
+		subject string
+	)
+	switch {
+	case req.GetFamily() != nil:
+		f, err := family1D("family", req.GetFamily())
+		if err != nil {
+			return nil, err
+		}
+		if b, err = bounds.FamilyBudget(ctx, f, g, band, opt); err != nil {
+			return nil, wirePaths(err)
+		}
+		subject = f.String()
+	default:
+		spatial, spectral := engineEnvelope(req.GetEnvelopes().GetSpatial()), engineEnvelope(req.GetEnvelopes().GetSpectral())
+		if b, err = bounds.EnvelopeBudget(ctx, spatial, spectral, g, band, opt); err != nil {
+			return nil, wirePaths(err)
+		}
+		subject = "spatial envelope " + spatial.String() + "; spectral envelope " + spectral.String()
+	}
+	out := newOutputs(conv, dim)
+	return &pb.ErrorBudgetResponse{
+		Budget:         out.budget(b),
+		Convention:     wireConvention(conv),
+		Subject:        subject,
+		WorstCaseShift: req.GetWorstCaseShift(),
+		Frequency:      &pb.Band{Center: req.GetFrequency().GetCenter(), HalfWidth: req.GetFrequency().GetHalfWidth()},
+	}, nil
 }
 
 // planGrid answers a PlanGridRequest.

@@ -59,6 +59,41 @@ func (e *unimplementedError) Error() string {
 	return e.field + ": " + e.what
 }
 
+// wirePaths renames the parameter path of an engine *bounds.ParamError
+// from the engine's names for a one-dimensional call ("grid.step",
+// "gaussian.sigma", "band.center") to the request's field paths
+// ("grids[0].step", "family.gaussian.sigma", "frequency.center[0]").
+// Other errors pass unchanged.
+func wirePaths(err error) error {
+	var pe *bounds.ParamError
+	if !errors.As(err, &pe) {
+		return err
+	}
+	p := pe.Param
+	head, rest, _ := strings.Cut(p, ".")
+	if rest != "" {
+		rest = "." + rest
+	}
+	switch head {
+	case "settings":
+	case "grid":
+		p = "grids[0]" + rest
+	case "xi":
+		p = "xi[0]"
+	case "band":
+		p = "frequency" + rest + "[0]"
+	case "spatial", "spectral":
+		p = "envelopes." + p
+	case "options":
+		p = strings.TrimPrefix(rest, ".")
+	case "family":
+		p = "family" + rest
+	default:
+		p = "family." + p
+	}
+	return &bounds.ParamError{Param: p, Reason: pe.Reason, Err: pe.Err}
+}
+
 // toStatus maps any error of validation, conversion or the engine to a
 // gRPC status. It is the only place in the package that chooses codes.
 //

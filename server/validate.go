@@ -382,6 +382,7 @@ func (lim Limits) checkErrorBudget(r *pb.ErrorBudgetRequest) (int, error) {
 	c.band("frequency", r.GetFrequency(), dim)
 	c.convention("convention", r.GetConvention())
 	c.settings("settings", r.GetSettings())
+	c.nonNegative("sample_ulps", r.GetSampleUlps())
 	return dim, c.err()
 }
 

@@ -96,7 +96,13 @@ type ErrorBudget struct {
 	Total float64 `protobuf:"fixed64,4,opt,name=total,proto3" json:"total,omitempty"`
 	// Finer itemisation (per axis or per source) when the engine gives one;
 	// the items of each part add up to at most that part.
-	Items         []*BudgetItem `protobuf:"bytes,5,rep,name=items,proto3" json:"items,omitempty"`
+	Items []*BudgetItem `protobuf:"bytes,5,rep,name=items,proto3" json:"items,omitempty"`
+	// True when aliasing and truncation come from enclosures of the exact
+	// error terms of a family; false when they come from envelopes.
+	Exact bool `protobuf:"varint,6,opt,name=exact,proto3" json:"exact,omitempty"`
+	// Number of frequency and shift subintervals the suprema were taken
+	// over (1 for a single frequency and shift).
+	Pieces        int32 `protobuf:"varint,7,opt,name=pieces,proto3" json:"pieces,omitempty"`
 	unknownFields protoimpl.UnknownFields
 	sizeCache     protoimpl.SizeCache
 }
@@ -164,6 +170,20 @@ func (x *ErrorBudget) GetItems() []*BudgetItem {
 		return x.Items
 	}
 	return nil
+}
+
+func (x *ErrorBudget) GetExact() bool {
+	if x != nil {
+		return x.Exact
+	}
+	return false
+}
+
+func (x *ErrorBudget) GetPieces() int32 {
+	if x != nil {
+		return x.Pieces
+	}
+	return 0
 }
 
 // BudgetItem is one line of an itemised budget.
@@ -243,7 +263,7 @@ var File_foldbound_v1_budget_proto protoreflect.FileDescriptor
 
 const file_foldbound_v1_budget_proto_rawDesc = "" +
 	"\n" +
-	"\x19foldbound/v1/budget.proto\x12\ffoldbound.v1\"\xab\x01\n" +
+	"\x19foldbound/v1/budget.proto\x12\ffoldbound.v1\"\xd9\x01\n" +
 	"\vErrorBudget\x12\x1a\n" +
 	"\baliasing\x18\x01 \x01(\x01R\baliasing\x12\x1e\n" +
 	"\n" +
@@ -251,7 +271,9 @@ const file_foldbound_v1_budget_proto_rawDesc = "" +
 	"truncation\x12\x1a\n" +
 	"\brounding\x18\x03 \x01(\x01R\brounding\x12\x14\n" +
 	"\x05total\x18\x04 \x01(\x01R\x05total\x12.\n" +
-	"\x05items\x18\x05 \x03(\v2\x18.foldbound.v1.BudgetItemR\x05items\"|\n" +
+	"\x05items\x18\x05 \x03(\v2\x18.foldbound.v1.BudgetItemR\x05items\x12\x14\n" +
+	"\x05exact\x18\x06 \x01(\bR\x05exact\x12\x16\n" +
+	"\x06pieces\x18\a \x01(\x05R\x06pieces\"|\n" +
 	"\n" +
 	"BudgetItem\x12,\n" +
 	"\x04part\x18\x01 \x01(\x0e2\x18.foldbound.v1.BudgetPartR\x04part\x12\x12\n" +

@@ -246,14 +246,21 @@ type ErrorBudgetRequest struct {
 	// One grid per axis (one for envelopes).
 	Grids []*Grid `protobuf:"bytes,3,rep,name=grids,proto3" json:"grids,omitempty"`
 	// The frequency or band the bound must hold on; empty for the integral.
+	// In the ordinary convention a single frequency 2 pi nu is rounded to the
+	// nearest float64 (as in AliasSum) and a band's ends are rounded outward.
 	Frequency *Band `protobuf:"bytes,4,opt,name=frequency,proto3" json:"frequency,omitempty"`
-	// If true, the bound holds for every shift of every grid and the grids'
-	// shifts are ignored. Default false.
+	// If true, the bound holds for every shift of every grid (wherever the
+	// samples fall within a cell) and the grids' shifts only centre the
+	// windows. Default false: the bound is for the grids' shifts.
 	WorstCaseShift bool `protobuf:"varint,5,opt,name=worst_case_shift,json=worstCaseShift,proto3" json:"worst_case_shift,omitempty"`
 	// Fourier convention of `frequency` and of the results. Default angular.
 	Convention Convention `protobuf:"varint,6,opt,name=convention,proto3,enum=foldbound.v1.Convention" json:"convention,omitempty"`
 	// Numerical settings.
-	Settings      *Settings `protobuf:"bytes,7,opt,name=settings,proto3" json:"settings,omitempty"`
+	Settings *Settings `protobuf:"bytes,7,opt,name=settings,proto3" json:"settings,omitempty"`
+	// Error of each sample value f(x_k) as the caller computes it, in units
+	// of the unit roundoff 2^-53 (finite, >= 0); it enters the rounding
+	// bound. 0 means 1: correctly rounded samples.
+	SampleUlps    float64 `protobuf:"fixed64,8,opt,name=sample_ulps,json=sampleUlps,proto3" json:"sample_ulps,omitempty"`
 	unknownFields protoimpl.UnknownFields
 	sizeCache     protoimpl.SizeCache
 }
@@ -346,6 +353,13 @@ func (x *ErrorBudgetRequest) GetSettings() *Settings {
 		return x.Settings
 	}
 	return nil
+}
+
+func (x *ErrorBudgetRequest) GetSampleUlps() float64 {
+	if x != nil {
+		return x.SampleUlps
+	}
+	return 0
 }
 
 type isErrorBudgetRequest_Subject interface {
@@ -1122,7 +1136,7 @@ const file_foldbound_v1_service_proto_rawDesc = "" +
 	"convention\x12\x16\n" +
 	"\x06family\x18\b \x01(\tR\x06family\x12\x1d\n" +
 	"\n" +
-	"xi_angular\x18\t \x03(\x01R\txiAngular\"\xfc\x02\n" +
+	"xi_angular\x18\t \x03(\x01R\txiAngular\"\x9d\x03\n" +
 	"\x12ErrorBudgetRequest\x12.\n" +
 	"\x06family\x18\x01 \x01(\v2\x14.foldbound.v1.FamilyH\x00R\x06family\x127\n" +
 	"\tenvelopes\x18\x02 \x01(\v2\x17.foldbound.v1.EnvelopesH\x00R\tenvelopes\x12(\n" +
@@ -1132,7 +1146,9 @@ const file_foldbound_v1_service_proto_rawDesc = "" +
 	"\n" +
 	"convention\x18\x06 \x01(\x0e2\x18.foldbound.v1.ConventionR\n" +
 	"convention\x122\n" +
-	"\bsettings\x18\a \x01(\v2\x16.foldbound.v1.SettingsR\bsettingsB\t\n" +
+	"\bsettings\x18\a \x01(\v2\x16.foldbound.v1.SettingsR\bsettings\x12\x1f\n" +
+	"\vsample_ulps\x18\b \x01(\x01R\n" +
+	"sampleUlpsB\t\n" +
 	"\asubject\"\xfc\x01\n" +
 	"\x13ErrorBudgetResponse\x121\n" +
 	"\x06budget\x18\x01 \x01(\v2\x19.foldbound.v1.ErrorBudgetR\x06budget\x12<\n" +
