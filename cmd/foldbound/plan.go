@@ -1,0 +1,117 @@
+package main
+
+import (
+	"fmt"
+	"io"
+	"strings"
+
+	"github.com/spf13/cobra"
+
+	pb "foldbound/api/foldbound/v1"
+)
+
+func newPlanCmd(stdout, stderr io.Writer) *cobra.Command {
+	var (
+		call                    callFlags
+		subj                    subjectFlags
+		set                     settingsFlags
+		tol                     float64
+		xi, band, spacing       []float64
+		fixedShift              []float64
+		cost                    string
+		perSample, perTransform float64
+		maxSamples              int64
+	)
+	cmd := &cobra.Command{
+		Use:   "plan",
+		Short: "Cheapest grid whose certified error is within a tolerance",
+		Long: `plan returns the cheapest grid (step, count, shift per axis) whose certified
+error budget (aliasing + truncation + rounding) is within --tol, for the
+integral or for a sampled transform over a band, for every shift unless
+--fixed-shift is given. The plan is re-verified before it is returned.`,
+		Example: `  foldbound plan --family 'gaussian(sigma=0.7)' --tol 1e-12
+  foldbound plan --family 'wave-packet(sigma=2, omega0=6)' --tol 1e-9 --xi 6 --band 2 --cost fft
+  foldbound plan --request plan.json --json`,
+		Args: cobra.NoArgs,
+		RunE: func(cmd *cobra.Command, _ []string) error {
+			req := &pb.PlanGridRequest{}
+			if call.request != "" {
+				if err := onlyRequest(cmd); err != nil {
+					return err
+				}
+				if err := call.readRequest(req); err != nil {
+					return err
+				}
+			} else {
+				f, env, dim, err := subj.subject()
+				if err != nil {
+					return err
+				}
+				if f != nil {
+					req.Subject = &pb.PlanGridRequest_Family{Family: f}
+				} else {
+					req.Subject = &pb.PlanGridRequest_Envelopes{Envelopes: env}
+				}
+				if !cmd.Flags().Changed("tol") {
+					return fmt.Errorf("--tol is required")
+				}
+				req.Tol = tol
+				req.Frequency = &pb.Band{}
+				if req.Frequency.Center, err = perAxis("xi", xi, dim); err != nil {
+					return err
+				}
+				if req.Frequency.HalfWidth, err = perAxis("band", band, dim); err != nil {
+					return err
+				}
+				if req.FrequencySpacing, err = perAxis("spacing", spacing, dim); err != nil {
+					return err
+				}
+				if req.Shift, err = perAxis("fixed-shift", fixedShift, dim); err != nil {
+					return err
+				}
+				req.Cost = &pb.CostModel{PerSample: perSample, PerTransform: perTransform}
+				switch strings.ToLower(cost) {
+				case "samples", "":
+					req.Cost.Kind = pb.CostKind_COST_KIND_SAMPLES
+				case "fft":
+					req.Cost.Kind = pb.CostKind_COST_KIND_FFT_SIZES
+				case "weighted":
+					req.Cost.Kind = pb.CostKind_COST_KIND_WEIGHTED
+				default:
+					return fmt.Errorf("--cost %q: want samples, fft or weighted", cost)
+				}
+				req.MaxSamples = maxSamples
+				if req.Settings, req.Convention, err = set.settings(); err != nil {
+					return err
+				}
+			}
+			s, err := call.dial(cmd.Context(), stderr)
+			if err != nil {
+				return err
+			}
+			defer s.stop()
+			res, err := s.PlanGrid(cmd.Context(), req)
+			if err != nil {
+				return err
+			}
+			if call.json {
+				return printJSON(stdout, res)
+			}
+			return printPlan(stdout, req, res)
+		},
+	}
+	fs := cmd.Flags()
+	call.register(fs)
+	subj.register(fs, true)
+	set.register(fs)
+	fs.Float64Var(&tol, "tol", 0, "absolute error tolerance of the total budget (required, > 0)")
+	fs.Float64SliceVar(&xi, "xi", nil, "band centre per axis in the convention's unit (default 0: the integral)")
+	fs.Float64SliceVar(&band, "band", nil, "band half-width per axis (default 0)")
+	fs.Float64SliceVar(&spacing, "spacing", nil, "required frequency spacing of the transform per axis (0: none)")
+	fs.Float64SliceVar(&fixedShift, "fixed-shift", nil, "plan for this shift per axis instead of every shift")
+	fs.StringVar(&cost, "cost", "samples", "what to minimise: samples, fft (sizes 2^a 3^b 5^c 7^d) or weighted")
+	fs.Float64Var(&perSample, "per-sample", 0, "weighted cost: cost of one sample")
+	fs.Float64Var(&perTransform, "per-transform", 0, "weighted cost: factor of the N log2 N transform cost")
+	fs.Int64Var(&maxSamples, "max-samples", 0, "largest acceptable total sample count (0: the server's limit)")
+	return cmd
+}
