@@ -64,7 +64,7 @@ func AliasSum(ctx context.Context, f Family, g Grid, xi float64, set Settings) (
 	if err := checkAliasArgs(f, g, xi, set); err != nil {
 		return SampledSum{}, err
 	}
-	s := aliasSummer{ctx: ctx, f: f, g: g, xi: Point(xi), shift: Point(g.Shift), set: set}
+	s := newSummer(ctx, f, g, Point(xi), Point(g.Shift), false, set)
 	res, err := s.run()
 	if err != nil {
 		return SampledSum{}, err
@@ -102,6 +102,14 @@ type aliasSummer struct {
 	abs   bool
 	set   Settings
 	terms int64 // terms summed so far, against the work limit
+
+	spec, spat Envelope // the family's envelopes, fetched once
+}
+
+// newSummer returns a summer for f on g at frequencies xi and shifts shift.
+func newSummer(ctx context.Context, f Family, g Grid, xi, shift Interval, abs bool, set Settings) *aliasSummer {
+	return &aliasSummer{ctx: ctx, f: f, g: g, xi: xi, shift: shift, abs: abs, set: set,
+		spec: f.Spectral(), spat: f.Spatial()}
 }
 
 // at encloses the sample positions s + h·k for every s in the shift.
@@ -138,22 +146,44 @@ func (s *aliasSummer) run() (SampledSum, error) {
 	}
 	F := s.f.Transform(s.xi)
 	scale := F.Mag()
-	h := s.g.Step
-	P := TwoPi.Div(Point(h)) // 2π/h, the period of the spectral copies
-
-	side := s.set.Side
-	if side == AutoSide {
-		side = s.chooseSide(F, P)
-	}
+	P := TwoPi.Div(Point(s.g.Step)) // 2π/h, the period of the spectral copies
 
 	var res SampledSum
 	res.Exact = F
-	switch {
-	case side == SpectralSide:
-		alias, m, err := s.spectralAlias(P, F)
-		if err != nil {
+	side := s.set.Side
+	var alias Complex
+	var m Method
+	if side != SpatialSide {
+		// Try the spectral side first with a few copies: for most families
+		// and grids it converges at once, and it keeps the alias part's
+		// relative accuracy. Only when it does not is the cheaper side
+		// estimated.
+		limit := int64(math.MaxInt64)
+		if side == AutoSide {
+			limit = autoSpectralCopies
+		}
+		var done bool
+		var err error
+		alias, m, done, err = s.spectralAlias(P, F, limit)
+		if err != nil && side == SpectralSide {
 			return res, err
 		}
+		switch {
+		case err == nil && done:
+			side = SpectralSide
+		case side == AutoSide:
+			side = s.chooseSide(F, P)
+			if side == SpectralSide {
+				s.terms = 0
+				alias, m, _, err = s.spectralAlias(P, F, math.MaxInt64)
+				if err != nil {
+					return res, err
+				}
+			}
+		}
+	}
+	switch {
+	case side == SpectralSide:
 		res.Alias = alias
 		res.Method = m
 		if !s.g.Infinite() {
@@ -192,16 +222,20 @@ func (s *aliasSummer) run() (SampledSum, error) {
 		res.Truncation = trunc
 		res.Alias = res.Error.Sub(trunc)
 		res.Method = Method{Side: SpatialSide, AliasTerms: s.g.Count, TruncationTerms: n,
-			Remainder: rem, RemainderFrom: s.f.Spatial().String()}
+			Remainder: rem, RemainderFrom: s.spat.Kinds()}
 	}
 	return res, nil
 }
+
+// autoSpectralCopies is how many alias copies on each side AliasSum tries
+// before it estimates which side of the Poisson formula is cheaper.
+const autoSpectralCopies = 32
 
 // chooseSide picks the spectral side when its alias sum needs no more
 // terms than a few times the spatial sum, or when the alias error is so
 // small against F that T - F would lose it to rounding.
 func (s *aliasSummer) chooseSide(F Complex, P Interval) Side {
-	spec := s.f.Spectral()
+	spec := s.spec
 	first := spec.At(s.xi.Add(P)) + spec.At(s.xi.Sub(P))
 	L := s.spectralTermsEstimate(P, s.goal(math.Max(first, 0x1p-60*F.Mag())))
 	if L < 64 {
@@ -220,9 +254,17 @@ func (s *aliasSummer) chooseSide(F Complex, P Interval) Side {
 
 // spectralTail bounds Σ_{|l|>L} |F(ξ + lP)|.
 func (s *aliasSummer) spectralTail(P Interval, L int64) float64 {
-	spec := s.f.Spectral()
+	spec := s.spec
 	next := P.Scale(float64(L + 1))
 	return addUp(spec.RayTail(s.xi.Add(next), 1, P.Lo), spec.RayTail(s.xi.Sub(next), -1, P.Lo))
+}
+
+// spectralEstimate approximates spectralTail in float64 (not a bound).
+func (s *aliasSummer) spectralEstimate(P Interval, L int64) float64 {
+	p := P.Mid()
+	next := p * float64(L+1)
+	x := s.xi.Mid()
+	return s.spec.RayEstimate(x+next, 1, p) + s.spec.RayEstimate(x-next, -1, p)
 }
 
 // spectralTermsEstimate returns the number of alias copies on each side
@@ -254,10 +296,10 @@ func (s *aliasSummer) spectralTermsEstimate(P Interval, goal float64) int64 {
 // spectralAlias sums the aliased copies l = ±1, …, ±L of F with the phase
 // e^{i2πls/h}, adding copies until the envelope bounds the rest below the
 // goal.
-func (s *aliasSummer) spectralAlias(P Interval, F Complex) (Complex, Method, error) {
-	spec := s.f.Spectral()
-	if math.IsInf(s.spectralTail(P, 0), 1) {
-		return Complex{}, Method{}, invalidf("family", "%v: spectral envelope is not summable; the spectral side cannot be used", s.f)
+func (s *aliasSummer) spectralAlias(P Interval, F Complex, limit int64) (Complex, Method, bool, error) {
+	tail := 2 * s.spectralEstimate(P, 0)
+	if math.IsInf(tail, 1) {
+		return Complex{}, Method{}, false, invalidf("family", "%v: spectral envelope is not summable; the spectral side cannot be used", s.f)
 	}
 	// Phase e^{i2πs/h}: reduce s/h modulo 1 first so that large shifts keep
 	// an accurate phase.
@@ -268,11 +310,26 @@ func (s *aliasSummer) spectralAlias(P Interval, F Complex) (Complex, Method, err
 
 	var sum Complex
 	var L int64
-	tail := s.spectralTail(P, 0)
-	for tail > s.goal(math.Max(sum.Mag(), 0x1p-60*F.Mag())) || (L == 0 && tail > s.set.Tol && tail > 0) {
+	rigorous := false // whether tail is the rigorous bound or an estimate
+	for {
+		goal := s.goal(math.Max(sum.Mag(), 0x1p-60*F.Mag()))
+		if tail <= goal && (L > 0 || tail == 0 || tail <= s.set.Tol) {
+			if rigorous {
+				break
+			}
+			// The estimate says enough: confirm with the rigorous tail.
+			tail = s.spectralTail(P, L)
+			rigorous = true
+			if tail <= goal {
+				break
+			}
+		}
+		if L >= limit {
+			return Complex{}, Method{}, false, nil
+		}
 		L++
 		if err := s.spend(2, "spectral alias sum"); err != nil {
-			return Complex{}, Method{}, err
+			return Complex{}, Method{}, false, err
 		}
 		lp := P.Scale(float64(L))
 		right := s.f.Transform(s.xi.Add(lp))
@@ -286,10 +343,13 @@ func (s *aliasSummer) spectralAlias(P Interval, F Complex) (Complex, Method, err
 			ph := Cis(theta.Scale(float64(L)))
 			sum = sum.Add(right.Mul(ph)).Add(left.Mul(ph.Conj()))
 		}
-		tail = s.spectralTail(P, L)
+		// Estimate first (cheap); twice the estimate must meet the goal
+		// before the rigorous tail is computed.
+		tail = 2 * s.spectralEstimate(P, L)
+		rigorous = false
 	}
 	sum = sum.Inflate(tail)
-	return sum, Method{Side: SpectralSide, AliasTerms: 2 * L, Remainder: tail, RemainderFrom: spec.String()}, nil
+	return sum, Method{Side: SpectralSide, AliasTerms: 2 * L, Remainder: tail, RemainderFrom: s.spec.Kinds()}, true, nil
 }
 
 // term encloses h·f(x_k)·e^{-iξx_k}.
@@ -308,7 +368,7 @@ func (s *aliasSummer) term(k int64) Complex {
 // spatialRays bounds h·Σ|f| over the samples beyond index hi (rightward)
 // and below index lo (leftward).
 func (s *aliasSummer) spatialRays(lo, hi int64) float64 {
-	env := s.f.Spatial()
+	env := s.spat
 	h := s.g.Step
 	r := env.RayTail(s.at(hi+1), 1, h)
 	l := env.RayTail(s.at(lo-1), -1, h)
@@ -328,7 +388,7 @@ func (s *aliasSummer) spatialTermsEstimate(scale float64) int64 {
 // spatialWindow finds indices [lo, hi] covering every envelope centre such
 // that the samples outside contribute at most goal.
 func (s *aliasSummer) spatialWindow(goal float64) (lo, hi int64, ok bool) {
-	env := s.f.Spatial()
+	env := s.spat
 	if len(env) == 0 {
 		return 0, -1, true
 	}
@@ -363,7 +423,6 @@ func (s *aliasSummer) spatialWindow(goal float64) (lo, hi int64, ok bool) {
 
 // spatialInfinite sums T over an infinite grid on the spatial side.
 func (s *aliasSummer) spatialInfinite(scale float64) (Complex, Method, error) {
-	env := s.f.Spatial()
 	lo, hi, ok := s.spatialWindow(s.goal(scale))
 	if !ok {
 		if math.IsInf(s.spatialRays(0, 0), 1) {
@@ -380,7 +439,7 @@ func (s *aliasSummer) spatialInfinite(scale float64) (Complex, Method, error) {
 	}
 	rem := s.spatialRays(lo, hi)
 	T = T.Inflate(rem)
-	return T, Method{Side: SpatialSide, AliasTerms: hi - lo + 1, Remainder: rem, RemainderFrom: env.String()}, nil
+	return T, Method{Side: SpatialSide, AliasTerms: hi - lo + 1, Remainder: rem, RemainderFrom: s.spat.Kinds()}, nil
 }
 
 // finiteSum sums T over the samples of a finite grid.

@@ -292,6 +292,13 @@ func FamilyBudget(ctx context.Context, f Family, g Grid, band Band, opt BudgetOp
 		return Budget{}, err
 	}
 	b.Exact = true
+	// The envelope bounds are valid too, and can be tighter where the
+	// band's branch and bound stopped early because the other item
+	// dominated: keep the smaller of each pair.
+	if eb, err := EnvelopeBudget(ctx, f.Spatial(), f.Spectral(), g, band, opt); err == nil {
+		b.Aliasing = math.Min(b.Aliasing, eb.Aliasing)
+		b.Truncation = math.Min(b.Truncation, eb.Truncation)
+	}
 	S := windowSum(f.Spatial(), g, shifts)
 	b.Rounding = roundingBound(g.Count, opt.sampleUlps(), band.Interval().Mag(), maxAbsX(g, shifts), S)
 	b.total()
@@ -315,7 +322,7 @@ type familyBudgeter struct {
 func (fb *familyBudgeter) at(xi Interval) (Budget, error) {
 	anyShift := fb.opt.AnyShift
 	wide := xi.Lo != xi.Hi
-	s := aliasSummer{ctx: fb.ctx, f: fb.f, g: fb.g, xi: xi, shift: fb.shifts, abs: anyShift, set: fb.opt.Settings}
+	s := newSummer(fb.ctx, fb.f, fb.g, xi, fb.shifts, anyShift, fb.opt.Settings)
 	F := fb.f.Transform(xi)
 	P := TwoPi.Div(Point(fb.g.Step))
 	side := fb.opt.Side
@@ -324,7 +331,7 @@ func (fb *familyBudgeter) at(xi Interval) (Budget, error) {
 	}
 	var b Budget
 	if side == SpectralSide {
-		alias, _, err := s.spectralAlias(P, F)
+		alias, _, _, err := s.spectralAlias(P, F, math.MaxInt64)
 		if err != nil {
 			return Budget{}, err
 		}
@@ -337,8 +344,7 @@ func (fb *familyBudgeter) at(xi Interval) (Budget, error) {
 			pieces = shiftPieces
 		}
 		for i := 0; i < pieces; i++ {
-			sp := aliasSummer{ctx: fb.ctx, f: fb.f, g: Grid{Step: fb.g.Step}, xi: xi,
-				shift: subinterval(fb.shifts, i, pieces), set: fb.opt.Settings}
+			sp := newSummer(fb.ctx, fb.f, Grid{Step: fb.g.Step}, xi, subinterval(fb.shifts, i, pieces), false, fb.opt.Settings)
 			T, _, err := sp.spatialInfinite(F.Mag())
 			if err != nil {
 				return Budget{}, err
@@ -353,8 +359,7 @@ func (fb *familyBudgeter) at(xi Interval) (Budget, error) {
 			pieces = shiftPieces
 		}
 		for i := 0; i < pieces; i++ {
-			st := aliasSummer{ctx: fb.ctx, f: fb.f, g: fb.g, xi: xi,
-				shift: subinterval(fb.shifts, i, pieces), abs: anyShift || wide, set: fb.opt.Settings}
+			st := newSummer(fb.ctx, fb.f, fb.g, xi, subinterval(fb.shifts, i, pieces), anyShift || wide, fb.opt.Settings)
 			trunc, _, _, err := st.omittedSum(F.Mag())
 			if err != nil {
 				return Budget{}, err

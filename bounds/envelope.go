@@ -92,39 +92,48 @@ func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
 // as in "spectral[0].rate".
 func (e Envelope) Validate(path string) error {
 	for i, t := range e {
-		p := fmt.Sprintf("%s[%d]", path, i)
-		if !finite(t.Amplitude) || t.Amplitude < 0 {
-			return invalidf(p+".amplitude", "must be finite and ≥ 0, got %g", t.Amplitude)
+		if err := t.validate(); err != nil {
+			pe := err.(*ParamError)
+			pe.Param = fmt.Sprintf("%s[%d].%s", path, i, pe.Param)
+			return pe
 		}
-		if !finite(t.Center) {
-			return invalidf(p+".center", "must be finite, got %g", t.Center)
+	}
+	return nil
+}
+
+// validate checks one term; the error's Param is the field name alone.
+func (t EnvelopeTerm) validate() error {
+	if !finite(t.Amplitude) || t.Amplitude < 0 {
+		return invalidf("amplitude", "must be finite and ≥ 0, got %g", t.Amplitude)
+	}
+	if !finite(t.Center) {
+		return invalidf("center", "must be finite, got %g", t.Center)
+	}
+	if !finite(t.Plateau) || t.Plateau < 0 {
+		return invalidf("plateau", "must be finite and ≥ 0, got %g", t.Plateau)
+	}
+	switch t.Decay {
+	case Exponential:
+		if !finite(t.Rate) || t.Rate <= 0 {
+			return invalidf("rate", "must be finite and > 0, got %g", t.Rate)
 		}
-		if !finite(t.Plateau) || t.Plateau < 0 {
-			return invalidf(p+".plateau", "must be finite and ≥ 0, got %g", t.Plateau)
+	case Gaussian:
+		if !finite(t.Width) || t.Width <= 0 {
+			return invalidf("width", "must be finite and > 0, got %g", t.Width)
 		}
-		switch t.Decay {
-		case Exponential:
-			if !finite(t.Rate) || t.Rate <= 0 {
-				return invalidf(p+".rate", "must be finite and > 0, got %g", t.Rate)
-			}
-		case Gaussian:
-			if !finite(t.Width) || t.Width <= 0 {
-				return invalidf(p+".width", "must be finite and > 0, got %g", t.Width)
-			}
-		case Algebraic:
-			if !finite(t.Width) || t.Width <= 0 {
-				return invalidf(p+".width", "must be finite and > 0, got %g", t.Width)
-			}
-			if !finite(t.Power) || t.Power <= 0 {
-				return invalidf(p+".power", "must be finite and > 0, got %g", t.Power)
-			}
-		case Compact:
-			if !finite(t.Width) || t.Width < 0 {
-				return invalidf(p+".width", "must be finite and ≥ 0, got %g", t.Width)
-			}
-		default:
-			return invalidf(p+".decay", "unknown decay %d", int(t.Decay))
+	case Algebraic:
+		if !finite(t.Width) || t.Width <= 0 {
+			return invalidf("width", "must be finite and > 0, got %g", t.Width)
 		}
+		if !finite(t.Power) || t.Power <= 0 {
+			return invalidf("power", "must be finite and > 0, got %g", t.Power)
+		}
+	case Compact:
+		if !finite(t.Width) || t.Width < 0 {
+			return invalidf("width", "must be finite and ≥ 0, got %g", t.Width)
+		}
+	default:
+		return invalidf("decay", "unknown decay %d", int(t.Decay))
 	}
 	return nil
 }
@@ -260,6 +269,11 @@ func (t EnvelopeTerm) rayFrom(x0, h float64) float64 {
 		expo := X.Scale(2).Mul(H).Add(H.Sqr()).Div(s.Sqr().Scale(2))
 		oneMinusRho := Expm1(expo.Neg()).Neg()
 		b1 := g0.Div(oneMinusRho).Hi
+		if oneMinusRho.Lo >= 0.75 {
+			// ρ ≤ 1/4: b1 is within 4/3 of the first term, itself a lower
+			// bound of the sum; the integral comparison cannot gain much.
+			return mulUp(A, b1)
+		}
 		// σ√(π/2)·erfc(x0/(σ√2))/h
 		sqrtHalfPi := Sqrt(Pi.Scale(0.5))
 		integral := s.Mul(sqrtHalfPi).Mul(Erfc(X.Div(s.Mul(Sqrt(Point(2)))))).Div(H)
@@ -305,6 +319,11 @@ func (t EnvelopeTerm) rayFrom(x0, h float64) float64 {
 // Taking U(d) = min(B(d-p), C) for d > p, with C the constant above, keeps U
 // non-increasing.
 func (t EnvelopeTerm) tail(d, h float64) float64 {
+	d = addDown(d, -t.Plateau)
+	if d >= h {
+		// B is non-increasing, so B(d) ≤ B(h) ≤ C: no need for C.
+		return t.rayFrom(d, h)
+	}
 	g0 := t.at(0)
 	var c float64
 	if t.Plateau == 0 {
@@ -313,7 +332,6 @@ func (t EnvelopeTerm) tail(d, h float64) float64 {
 		n := math.Floor(divUp(mulUp(2, t.Plateau), h)) + 3
 		c = addUp(mulUp(n, g0), mulUp(2, t.rayFrom(h, h)))
 	}
-	d = addDown(d, -t.Plateau)
 	if d <= 0 {
 		return c
 	}
@@ -360,6 +378,68 @@ func (e Envelope) String() string {
 			s += " + "
 		}
 		s += t.String()
+	}
+	return s
+}
+
+// Kinds names the decays of the terms, joined by "+" ("gaussian",
+// "exponential+algebraic"), or "none" for the empty envelope.
+func (e Envelope) Kinds() string {
+	switch len(e) {
+	case 0:
+		return "none"
+	case 1:
+		return e[0].Decay.String()
+	}
+	s := e[0].Decay.String()
+	for _, t := range e[1:] {
+		s += "+" + t.Decay.String()
+	}
+	return s
+}
+
+// estimate returns a float64 approximation of tail(d, h) without interval
+// arithmetic, for deciding how many terms to sum before the rigorous tail
+// is computed once. It is not a bound.
+func (t EnvelopeTerm) estimate(d, h float64) float64 {
+	d -= t.Plateau
+	if d < h/2 {
+		d = h / 2 // near or past the centre: the tail is of the order of the peak
+	}
+	A := t.Amplitude
+	switch t.Decay {
+	case Exponential:
+		return A * math.Exp(-t.Rate*d) / -math.Expm1(-t.Rate*h)
+	case Gaussian:
+		u := d / t.Width
+		rho := math.Exp(-(2*d*h + h*h) / (2 * t.Width * t.Width))
+		return A * math.Exp(-0.5*u*u) / (1 - rho)
+	case Algebraic:
+		if t.Power <= 1 {
+			return math.Inf(1)
+		}
+		a := 1 + d/t.Width
+		c := h / t.Width
+		return A * (math.Pow(a, -t.Power) + math.Pow(a, 1-t.Power)/(c*(t.Power-1)))
+	case Compact:
+		if d > t.Width {
+			return 0
+		}
+		return A * (math.Floor((t.Width-d)/h) + 1)
+	}
+	return math.Inf(1)
+}
+
+// RayEstimate approximates RayTail at the midpoint of x0, in float64; it is
+// not a bound (see EnvelopeTerm.estimate).
+func (e Envelope) RayEstimate(x0 float64, dir int, h float64) float64 {
+	s := 0.0
+	for _, t := range e {
+		d := x0 - t.Center
+		if dir < 0 {
+			d = -d
+		}
+		s += t.estimate(d, h)
 	}
 	return s
 }

@@ -49,8 +49,8 @@ func PeriodicRule(ctx context.Context, f Family, n, k int64, set Settings) (Peri
 	if err := ctx.Err(); err != nil {
 		return PeriodicSum{}, fmt.Errorf("bounds: periodic rule: %w", err)
 	}
-	s := aliasSummer{ctx: ctx, f: f, set: set}
-	spec := f.Spectral()
+	s := newSummer(ctx, f, Grid{}, Point(0), Point(0), false, set)
+	spec := s.spec
 	twoPi := TwoPi
 	kk := Point(float64(k))
 	N := Point(float64(n))
@@ -79,7 +79,7 @@ func PeriodicRule(ctx context.Context, f Family, n, k int64, set Settings) (Peri
 	res := PeriodicSum{
 		Exact:  exact.MulReal(inv),
 		Alias:  alias.MulReal(inv),
-		Method: Method{Side: SpectralSide, AliasTerms: 2 * M, Remainder: divUp(t, twoPi.Lo), RemainderFrom: spec.String()},
+		Method: Method{Side: SpectralSide, AliasTerms: 2 * M, Remainder: divUp(t, twoPi.Lo), RemainderFrom: spec.Kinds()},
 	}
 	res.Coefficient = res.Exact.Add(res.Alias)
 	if !res.Coefficient.IsFinite() {
