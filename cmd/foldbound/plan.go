@@ -3,6 +3,8 @@ package main
 import (
 	"fmt"
 	"io"
+	"math"
+	"strconv"
 	"strings"
 
 	"github.com/spf13/cobra"
@@ -104,7 +106,7 @@ integral or for a sampled transform over a band, for every shift unless
 	call.register(fs)
 	subj.register(fs, true)
 	set.register(fs)
-	fs.Float64Var(&tol, "tol", 0, "absolute error tolerance of the total budget (required, > 0)")
+	fs.Var(strictFloat{&tol}, "tol", "absolute error tolerance of the total budget (required, > 0)")
 	fs.Float64SliceVar(&xi, "xi", nil, "band centre per axis in the convention's unit (default 0: the integral)")
 	fs.Float64SliceVar(&band, "band", nil, "band half-width per axis (default 0)")
 	fs.Float64SliceVar(&spacing, "spacing", nil, "required frequency spacing of the transform per axis (0: none)")
@@ -114,4 +116,42 @@ integral or for a sampled transform over a band, for every shift unless
 	fs.Float64Var(&perTransform, "per-transform", 0, "weighted cost: factor of the N log2 N transform cost")
 	fs.Int64Var(&maxSamples, "max-samples", 0, "largest acceptable total sample count (0: the server's limit)")
 	return cmd
+}
+
+// strictFloat is a float64 flag that refuses values float64 cannot
+// represent: strconv.ParseFloat returns 0 without error for 1e-400, and
+// a tolerance must not silently become 0.
+type strictFloat struct{ v *float64 }
+
+func (f strictFloat) String() string {
+	if f.v == nil {
+		return "0"
+	}
+	return strconv.FormatFloat(*f.v, 'g', -1, 64)
+}
+
+func (f strictFloat) Type() string { return "float" }
+
+func (f strictFloat) Set(s string) error {
+	v, err := strconv.ParseFloat(s, 64)
+	if err != nil {
+		return err
+	}
+	mant := strings.ToLower(s)
+	if strings.HasPrefix(strings.TrimLeft(mant, "+-"), "0x") {
+		mant = mant[strings.Index(mant, "0x")+2:]
+		if i := strings.IndexByte(mant, 'p'); i >= 0 {
+			mant = mant[:i]
+		}
+	} else if i := strings.IndexByte(mant, 'e'); i >= 0 {
+		mant = mant[:i]
+	}
+	if v == 0 && strings.ContainsAny(mant, "123456789abcdef") {
+		return fmt.Errorf("%s underflows float64 to 0 (the smallest positive float64 is about 4.9e-324)", s)
+	}
+	if v != 0 && math.Abs(v) < 0x1p-1022 {
+		return fmt.Errorf("%s is subnormal in float64; tolerances must be at least 2.2250738585072014e-308", s)
+	}
+	*f.v = v
+	return nil
 }
