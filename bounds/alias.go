@@ -114,7 +114,7 @@ func newSummer(ctx context.Context, f Family, g Grid, xi, shift Interval, abs bo
 
 // at encloses the sample positions s + h·k for every s in the shift.
 func (s *aliasSummer) at(k int64) Interval {
-	return Point(s.g.Step).Scale(float64(k)).Add(s.shift)
+	return position(s.g.Step, k, s.shift)
 }
 
 // goal returns the remainder we accept for a sum whose magnitude is about
@@ -154,30 +154,41 @@ func (s *aliasSummer) run() (SampledSum, error) {
 	var alias Complex
 	var m Method
 	if side != SpatialSide {
-		// Try the spectral side first with a few copies: for most families
-		// and grids it converges at once, and it keeps the alias part's
-		// relative accuracy. Only when it does not is the cheaper side
-		// estimated.
+		// Try the spectral side first with a few copies, unless the
+		// envelope already says they will not do: for most families and
+		// grids it converges at once, and it keeps the alias part's relative
+		// accuracy. Only when it does not is the cheaper side estimated.
 		limit := int64(math.MaxInt64)
 		if side == AutoSide {
-			limit = autoSpectralCopies
+			limit = 0
+			if s.trialWorthwhile(P, F) {
+				limit = autoSpectralCopies
+			}
 		}
 		var done bool
 		var err error
-		alias, m, done, err = s.spectralAlias(P, F, limit)
-		if err != nil && side == SpectralSide {
-			return res, err
+		if limit > 0 {
+			alias, m, done, err = s.spectralAlias(P, F, limit)
+			if err != nil && side == SpectralSide {
+				return res, err
+			}
 		}
 		switch {
 		case err == nil && done:
 			side = SpectralSide
 		case side == AutoSide:
-			side = s.chooseSide(F, P)
+			var L int64
+			side, L = s.chooseSide(F, P)
 			if side == SpectralSide {
+				// The estimate assumed copies as large as their envelope;
+				// if they are much smaller (copies near zeros of F) the
+				// relative goal needs more, so cap the work and fall back
+				// to the spatial side.
 				s.terms = 0
-				alias, m, _, err = s.spectralAlias(P, F, math.MaxInt64)
-				if err != nil {
-					return res, err
+				alias, m, done, err = s.spectralAlias(P, F, max(4*L, 64))
+				if err != nil || !done {
+					side = SpatialSide
+					s.terms = 0
 				}
 			}
 		}
@@ -231,15 +242,26 @@ func (s *aliasSummer) run() (SampledSum, error) {
 // before it estimates which side of the Poisson formula is cheaper.
 const autoSpectralCopies = 32
 
+// trialWorthwhile reports whether autoSpectralCopies copies on each side
+// may reach the goal, by the float64 estimate of the tail after them.
+func (s *aliasSummer) trialWorthwhile(P Interval, F Complex) bool {
+	first := s.spectralEstimate(P, 0)
+	if math.IsInf(first, 1) {
+		return false
+	}
+	return s.spectralEstimate(P, autoSpectralCopies) <= s.goal(math.Max(first, 0x1p-60*F.Mag()))
+}
+
 // chooseSide picks the spectral side when its alias sum needs no more
 // terms than a few times the spatial sum, or when the alias error is so
-// small against F that T - F would lose it to rounding.
-func (s *aliasSummer) chooseSide(F Complex, P Interval) Side {
+// small against F that T - F would lose it to rounding. It also returns the
+// estimated number of copies on each side for the spectral side.
+func (s *aliasSummer) chooseSide(F Complex, P Interval) (Side, int64) {
 	spec := s.spec
 	first := spec.At(s.xi.Add(P)) + spec.At(s.xi.Sub(P))
 	L := s.spectralTermsEstimate(P, s.goal(math.Max(first, 0x1p-60*F.Mag())))
 	if L < 64 {
-		return SpectralSide
+		return SpectralSide, L
 	}
 	K := s.spatialTermsEstimate(F.Mag())
 	if s.g.Count > 0 && s.g.Count < K {
@@ -247,9 +269,9 @@ func (s *aliasSummer) chooseSide(F Complex, P Interval) Side {
 	}
 	tiny := first < 1e-8*F.Mag()
 	if L <= 4*K || (tiny && L <= s.set.maxTerms()) {
-		return SpectralSide
+		return SpectralSide, L
 	}
-	return SpatialSide
+	return SpatialSide, L
 }
 
 // spectralTail bounds Σ_{|l|>L} |F(ξ + lP)|.
@@ -308,11 +330,20 @@ func (s *aliasSummer) spectralAlias(P Interval, F Complex, limit int64) (Complex
 	theta := TwoPi.Mul(u)
 	zeroShift := u.Lo == 0 && u.Hi == 0
 
+	// The remainder goal is relative to the size of the copies summed so
+	// far (not only to their sum, which may be 0 when every copy sits on a
+	// zero of F); before any copy is summed, to the estimate of the first.
+	first := tail / 2
 	var sum Complex
+	var sumAbs float64
 	var L int64
 	rigorous := false // whether tail is the rigorous bound or an estimate
 	for {
-		goal := s.goal(math.Max(sum.Mag(), 0x1p-60*F.Mag()))
+		scale := math.Max(sum.Mag(), sumAbs)
+		if scale == 0 {
+			scale = 0x1p-60 * first
+		}
+		goal := s.goal(math.Max(scale, 0x1p-60*F.Mag()))
 		if tail <= goal && (L > 0 || tail == 0 || tail <= s.set.Tol) {
 			if rigorous {
 				break
@@ -334,6 +365,7 @@ func (s *aliasSummer) spectralAlias(P Interval, F Complex, limit int64) (Complex
 		lp := P.Scale(float64(L))
 		right := s.f.Transform(s.xi.Add(lp))
 		left := s.f.Transform(s.xi.Sub(lp))
+		sumAbs += right.Mag() + left.Mag()
 		switch {
 		case s.abs:
 			sum = sum.Add(RealC(right.Abs().Add(left.Abs())))

@@ -40,6 +40,13 @@ func inC(z Complex, w bigref.Complex) bool {
 	return w.In(z.Re.Lo, z.Re.Hi, z.Im.Lo, z.Im.Hi)
 }
 
+// inCRef is inC for a reference that carries its own rounding error (a
+// math/big sum with phases at 320 bits is exact to about 2^-300 of its
+// terms' magnitude): the reference may lie outside z by at most slack.
+func inCRef(z Complex, w bigref.Complex, slack float64) bool {
+	return w.In(z.Re.Lo-slack, z.Re.Hi+slack, z.Im.Lo-slack, z.Im.Hi+slack)
+}
+
 // On a finite grid the sampled sum is a finite sum: the enclosure of T and
 // of the error T - F must contain the math/big values, on every side of the
 // Poisson formula the engine may use, and E = Alias + Truncation.

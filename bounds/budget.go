@@ -326,17 +326,25 @@ func (fb *familyBudgeter) at(xi Interval) (Budget, error) {
 	F := fb.f.Transform(xi)
 	P := TwoPi.Div(Point(fb.g.Step))
 	side := fb.opt.Side
+	limit := int64(math.MaxInt64)
 	if side == AutoSide {
-		side = s.chooseSide(F, P)
+		var L int64
+		side, L = s.chooseSide(F, P)
+		limit = max(4*L, 64)
 	}
 	var b Budget
 	if side == SpectralSide {
-		alias, _, _, err := s.spectralAlias(P, F, math.MaxInt64)
-		if err != nil {
+		alias, _, done, err := s.spectralAlias(P, F, limit)
+		switch {
+		case err != nil && fb.opt.Side == SpectralSide:
 			return Budget{}, err
+		case err == nil && done:
+			b.Aliasing = alias.Mag()
+		default:
+			side = SpatialSide // the automatic choice fell short: see AliasSum
 		}
-		b.Aliasing = alias.Mag()
-	} else {
+	}
+	if side == SpatialSide {
 		// Spatial side: the error of the infinite grid is T∞ - F, taken at
 		// each shift piece.
 		pieces := 1

@@ -39,11 +39,23 @@
 //     as a sup over a band, for the grid's shift or for every shift.
 //   - PeriodicRule and StripBound: the N-point rule over a period and the
 //     aliasing of Fourier coefficients.
+//   - AliasSumND: the same on rectangular grids in n ≤ MaxDim dimensions
+//     for separable families (Separable, RadialGaussian), axis by axis.
+//   - LatticeAliasSum: alias sums on a general lattice W·Z^n (Lattice,
+//     with the square, hexagonal, body- and face-centred cubic and D4
+//     lattices built in), summed over shells of the dual lattice with a
+//     certified lattice-point counting bound for the rest;
+//     LatticeAliasBound, PlanLattice and CompareLattices size and rank
+//     lattices for an isotropic spectral envelope.
+//
+// The subpackages apply the engine to two trades: scan plans the sampling
+// of tomographic scans and checks them by reconstruction; gridding plans
+// the kernels of non-uniform FFTs.
 //
 // Functions are described either exactly, as a Family with a closed-form
 // transform (Gaussian, two-sided exponential, Lorentzian, sech, sech²,
-// B-splines, Fejér, wave packet, Kaiser-Bessel, and their shifts,
-// dilations, modulations, amplitudes and sums), or only by their decay, as
+// B-splines of orders 1 to 8, Fejér, wave packet, Kaiser-Bessel, and their
+// shifts, dilations, modulations, amplitudes and sums), or only by their decay, as
 // an Envelope: exponential, Gaussian, algebraic or compact, on the spatial
 // side (decay of |f|) and the spectral side (decay of |F|; compact is a band
 // limit). Tails of infinite sums are bounded in closed form from the

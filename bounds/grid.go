@@ -25,9 +25,36 @@ func (g Grid) Indices() (lo, hi int64) {
 	return -((g.Count - 1) / 2), g.Count / 2
 }
 
-// At encloses the sample position x_k = Shift + Step·k.
+// At encloses the sample position x_k = Shift + Step·k; it is a point when
+// the position is a float64, so samples exactly on a jump of f get the
+// midpoint value the family defines there.
 func (g Grid) At(k int64) Interval {
-	return Point(g.Step).Scale(float64(k)).AddFloat(g.Shift)
+	return position(g.Step, k, Point(g.Shift))
+}
+
+// position encloses s + h·k for every s in the interval. The product and
+// the sum are rounded to nearest and their exact errors, from FMA and
+// TwoSum, say which way (if any) to widen.
+func position(h float64, k int64, s Interval) Interval {
+	kf := float64(k)
+	p := h * kf
+	P := Point(p)
+	if e := math.FMA(h, kf, -p); e > 0 {
+		P.Hi = nextUp(p)
+	} else if e < 0 {
+		P.Lo = nextDown(p)
+	}
+	if P.Lo == P.Hi && s.Lo == s.Hi {
+		r := p + s.Lo
+		x := Point(r)
+		if e := twoSumErr(p, s.Lo, r); e > 0 {
+			x.Hi = nextUp(r)
+		} else if e < 0 {
+			x.Lo = nextDown(r)
+		}
+		return x
+	}
+	return P.Add(s)
 }
 
 // Window returns the interval [x_first, x_last] covered by a finite grid.
