@@ -45,9 +45,10 @@ func BSpline(order int32) *pb.Family {
 	return &pb.Family{Kind: &pb.Family_BSpline{BSpline: &pb.BSpline{Order: order}}}
 }
 
-// KaiserBessel is the Kaiser-Bessel window of half-width w and shape β.
-func KaiserBessel(w, beta float64) *pb.Family {
-	return &pb.Family{Kind: &pb.Family_KaiserBessel{KaiserBessel: &pb.KaiserBessel{W: w, Beta: beta}}}
+// KaiserBessel is the Kaiser-Bessel window of width W (support
+// [-W/2, W/2]) and shape β.
+func KaiserBessel(width, beta float64) *pb.Family {
+	return &pb.Family{Kind: &pb.Family_KaiserBessel{KaiserBessel: &pb.KaiserBessel{Width: width, Beta: beta}}}
 }
 
 // Scaled is c·f(x).

@@ -1,6 +1,7 @@
 package server
 
 import (
+	"fmt"
 	"math"
 
 	pb "foldbound/api/foldbound/v1"
@@ -30,8 +31,40 @@ func family1D(path string, f *pb.Family) (bounds.Family, error) {
 	switch k := f.GetKind().(type) {
 	case *pb.Family_Gaussian:
 		return bounds.GaussianFamily{Sigma: k.Gaussian.GetSigma()}, nil
+	case *pb.Family_BSpline:
+		return bounds.BSplineFamily{Order: int(k.BSpline.GetOrder())}, nil
+	case *pb.Family_KaiserBessel:
+		return bounds.KaiserBesselFamily{Width: k.KaiserBessel.GetWidth(), Beta: k.KaiserBessel.GetBeta()}, nil
 	}
 	return nil, notInEngine(path, f)
+}
+
+// familyND converts a validated family tree of dimension dim to an
+// n-dimensional engine family; one-dimensional kinds become a Separable
+// with one axis.
+func familyND(path string, f *pb.Family, dim int) (bounds.FamilyND, error) {
+	switch k := f.GetKind().(type) {
+	case *pb.Family_Separable:
+		axes := make([]bounds.Family, len(k.Separable.GetFactors()))
+		for i, g := range k.Separable.GetFactors() {
+			var err error
+			if axes[i], err = family1D(fmt.Sprintf("%s.separable.factors[%d]", path, i), g); err != nil {
+				return nil, err
+			}
+		}
+		return bounds.Separable{Axes: axes}, nil
+	case *pb.Family_RadialGaussian:
+		c := k.RadialGaussian.GetCenter()
+		if len(c) == 0 {
+			c = make([]float64, dim)
+		}
+		return bounds.RadialGaussian{Sigma: k.RadialGaussian.GetSigma(), Center: append([]float64(nil), c...)}, nil
+	}
+	f1, err := family1D(path, f)
+	if err != nil {
+		return nil, err
+	}
+	return bounds.Separable{Axes: []bounds.Family{f1}}, nil
 }
 
 // engineGrid converts a validated grid.

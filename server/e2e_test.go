@@ -101,6 +101,49 @@ func TestAliasSumOverTCP(t *testing.T) {
 			wantSampled: gaussianTrapezoid(0.5, 0.1, math.Pi/2, 20),
 			tol:         1e-13,
 		},
+		{
+			// Partition of unity of the cardinal B-spline, Σ_k M_4(x - k) = 1
+			// (de Boor, A Practical Guide to Splines, 1978, ch. IX, from
+			// memory), and ∫ M_4 = 1.
+			name:        "B-spline order 4, unit grid, shifted",
+			req:         &pb.AliasSumRequest{Family: client.BSpline(4), Grids: []*pb.Grid{client.Grid(1, 0.3, 0)}},
+			convention:  pb.Convention_CONVENTION_ANGULAR,
+			wantExact:   1,
+			wantSampled: 1,
+			tol:         1e-14,
+		},
+		{
+			// Kaiser-Bessel with β = 0 is the box of width W: ∫ = W, and
+			// on the step W/4 with a shift off the edges it has 4 samples
+			// of 1 (common practice, no source).
+			name:        "Kaiser-Bessel beta 0 is the box",
+			req:         &pb.AliasSumRequest{Family: client.KaiserBessel(2, 0), Grids: []*pb.Grid{client.Grid(0.5, 0.25, 0)}},
+			convention:  pb.Convention_CONVENTION_ANGULAR,
+			wantExact:   2,
+			wantSampled: 2,
+			tol:         1e-14,
+		},
+		{
+			// A separable product factorises (Fubini): on unit grids the
+			// 2-D sum of exp(-|x|²/2) is the square of the 1-D sum, and
+			// the integral is 2π.
+			name:        "radial Gaussian in 2-D",
+			req:         &pb.AliasSumRequest{Family: client.RadialGaussian(2, 1), Grids: []*pb.Grid{client.Grid(1, 0, 0), client.Grid(1, 0, 0)}},
+			convention:  pb.Convention_CONVENTION_ANGULAR,
+			wantExact:   2 * math.Pi,
+			wantSampled: gaussianTrapezoid(1, 0, 0, 40) * gaussianTrapezoid(1, 0, 0, 40),
+			tol:         1e-14,
+		},
+		{
+			name: "separable Gaussian × B-spline, unitary",
+			req: &pb.AliasSumRequest{Family: client.Separable(client.Gaussian(1), client.BSpline(2)),
+				Grids: []*pb.Grid{client.Grid(0.5, 0, 41), client.Grid(1, 0, 0)}, Convention: pb.Convention_CONVENTION_UNITARY},
+			convention: pb.Convention_CONVENTION_UNITARY,
+			// (2π)^{-1}·√(2π)·1 = 1/√(2π); the hat M_2 sums to 1 on Z.
+			wantExact:   1 / sqrt2Pi,
+			wantSampled: gaussianTrapezoid(0.5, 0, 0, 20) / (2 * math.Pi),
+			tol:         1e-14,
+		},
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {

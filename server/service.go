@@ -58,24 +58,49 @@ func (s *service) aliasSum(ctx context.Context, req *pb.AliasSumRequest) (*pb.Al
 	for i, v := range req.GetXi() {
 		xi[i] = angular(conv, v)
 	}
-	if dim != 1 {
-		return nil, &unimplementedError{field: "family." + kindName(req.GetFamily()), what: "n-dimensional alias sums are not available in this server's engine yet"}
-	}
-	f, err := family1D("family", req.GetFamily())
-	if err != nil {
-		return nil, err
-	}
-	r, err := bounds.AliasSum(ctx, f, engineGrid(req.GetGrids()[0]), xi[0], set)
-	if err != nil {
-		return nil, wirePaths(err)
+	var (
+		r    bounds.SampledSum
+		name string
+	)
+	if kind := req.GetFamily().GetKind(); dim == 1 && !isND(kind) {
+		f, err := family1D("family", req.GetFamily())
+		if err != nil {
+			return nil, err
+		}
+		if r, err = bounds.AliasSum(ctx, f, engineGrid(req.GetGrids()[0]), xi[0], set); err != nil {
+			return nil, wirePaths(err)
+		}
+		name = f.String()
+	} else {
+		f, err := familyND("family", req.GetFamily(), dim)
+		if err != nil {
+			return nil, err
+		}
+		grids := make([]bounds.Grid, dim)
+		for i, g := range req.GetGrids() {
+			grids[i] = engineGrid(g)
+		}
+		if r, err = bounds.AliasSumND(ctx, f, grids, xi, set); err != nil {
+			return nil, wirePathsND(err)
+		}
+		name = f.String()
 	}
 	out := newOutputs(conv, dim)
 	res := out.sampledSum(r)
 	res.Method = out.method(r.Method, set.MaxTerms)
 	res.Convention = wireConvention(conv)
-	res.Family = f.String()
+	res.Family = name
 	res.XiAngular = xi
 	return res, nil
+}
+
+// isND reports whether a family kind is n-dimensional by nature.
+func isND(k any) bool {
+	switch k.(type) {
+	case *pb.Family_Separable, *pb.Family_RadialGaussian:
+		return true
+	}
+	return false
 }
 
 // errorBudget answers an ErrorBudgetRequest.
@@ -84,7 +109,7 @@ func (s *service) errorBudget(ctx context.Context, req *pb.ErrorBudgetRequest) (
 	if err != nil {
 		return nil, err
 	}
-	if dim != 1 {
+	if dim != 1 || isND(req.GetFamily().GetKind()) {
 		return nil, &unimplementedError{field: "family." + kindName(req.GetFamily()), what: "n-dimensional error budgets are not available in this server's engine yet"}
 	}
 	conv := engineConvention(req.GetConvention())

@@ -94,6 +94,25 @@ func wirePaths(err error) error {
 	return &bounds.ParamError{Param: p, Reason: pe.Reason, Err: pe.Err}
 }
 
+// wirePathsND renames the parameter path of an engine error of AliasSumND,
+// whose names ("grids[j].step", "xi[j]", "separable.axes[j]...") are
+// already close to the request's.
+func wirePathsND(err error) error {
+	var pe *bounds.ParamError
+	if !errors.As(err, &pe) {
+		return err
+	}
+	p := pe.Param
+	switch {
+	case strings.HasPrefix(p, "grids"), strings.HasPrefix(p, "xi"), strings.HasPrefix(p, "settings"), p == "family":
+	case strings.HasPrefix(p, "separable.axes"):
+		p = "family.separable.factors" + strings.TrimPrefix(p, "separable.axes")
+	default:
+		p = "family." + p
+	}
+	return &bounds.ParamError{Param: p, Reason: pe.Reason, Err: pe.Err}
+}
+
 // toStatus maps any error of validation, conversion or the engine to a
 // gRPC status. It is the only place in the package that chooses codes.
 //

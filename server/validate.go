@@ -142,12 +142,16 @@ func (c *checker) family(path string, f *pb.Family, depth int, root bool) int {
 	case *pb.Family_Fejer:
 		c.positive(path+".fejer.omega", k.Fejer.GetOmega())
 	case *pb.Family_BSpline:
-		if m := k.BSpline.GetOrder(); m < 1 || m > 8 {
-			c.bad(path+".b_spline.order", "must be between 1 and 8, got %d", m)
+		if m := k.BSpline.GetOrder(); m < 1 || m > bounds.MaxBSplineOrder {
+			c.bad(path+".b_spline.order", "must be between 1 and %d, got %d", bounds.MaxBSplineOrder, m)
 		}
 	case *pb.Family_KaiserBessel:
-		c.positive(path+".kaiser_bessel.w", k.KaiserBessel.GetW())
-		c.nonNegative(path+".kaiser_bessel.beta", k.KaiserBessel.GetBeta())
+		if w := k.KaiserBessel.GetWidth(); !finite(w) || w < 0x1p-1000 || w > 0x1p1000 {
+			c.bad(path+".kaiser_bessel.width", "must be finite and between 2^-1000 and 2^1000, got %g", w)
+		}
+		if b := k.KaiserBessel.GetBeta(); !finite(b) || b < 0 || b > bounds.MaxKaiserBeta {
+			c.bad(path+".kaiser_bessel.beta", "must be between 0 and %d, got %g", bounds.MaxKaiserBeta, b)
+		}
 	case *pb.Family_Amplitude:
 		p := path + ".amplitude"
 		if z := k.Amplitude.GetFactor(); z == nil {

@@ -157,7 +157,7 @@ func (n *node) params(subs int, names []string, defaults map[string]float64) ([]
 
 // familyNames lists the function names the notation knows, for help text.
 const familyNames = `gaussian(sigma), two-sided-exponential(a), lorentzian(a), sech(w), sech2(w),
-wave-packet(sigma, omega0), fejer(omega), bspline(order), kaiser-bessel(w, beta);
+wave-packet(sigma, omega0), fejer(omega), bspline(order), kaiser-bessel(width, beta);
 scale(re, im, F), shift(by, F), dilate(factor, F), modulate(omega0, F), sum(F, …);
 separable(F1, …, Fn), radial-gaussian(dim, sigma)`
 
@@ -207,7 +207,7 @@ func (n *node) family() (*pb.Family, error) {
 			return client.BSpline(int32(v[0])), nil
 		}
 	case "kaiser-bessel":
-		if v, err = one("w", "beta"); err == nil {
+		if v, err = one("width", "beta"); err == nil {
 			return client.KaiserBessel(v[0], v[1]), nil
 		}
 	case "scale":

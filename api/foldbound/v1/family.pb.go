@@ -287,7 +287,7 @@ type Family_BSpline struct {
 }
 
 type Family_KaiserBessel struct {
-	// Kaiser-Bessel window of half-width w and shape beta.
+	// Kaiser-Bessel window of width W and shape beta.
 	KaiserBessel *KaiserBessel `protobuf:"bytes,9,opt,name=kaiser_bessel,json=kaiserBessel,proto3,oneof"`
 }
 
@@ -742,15 +742,20 @@ func (x *BSpline) GetOrder() int32 {
 	return 0
 }
 
-// KaiserBessel is the Kaiser-Bessel window of half-width w and shape beta,
-// the usual gridding kernel of non-uniform FFTs, supported on [-w, w]; its
-// exact normalisation and closed-form transform are documented with the
-// engine's KaiserBessel type.
+// KaiserBessel is the Kaiser-Bessel window of width W and shape beta, the
+// usual gridding kernel of non-uniform FFTs:
+//
+//	f(x) = I0(beta sqrt(1 - (2x/W)^2))  for |x| < W/2,
+//	       1/2 at |x| = W/2 (the midpoint of the jump), 0 beyond,
+//
+// with F(xi) = W sinh(sqrt(beta^2 - u^2)) / sqrt(beta^2 - u^2), u = W xi / 2
+// (sin(sqrt(u^2 - beta^2)) / sqrt(u^2 - beta^2) for |u| > beta).
 type KaiserBessel struct {
 	state protoimpl.MessageState `protogen:"open.v1"`
-	// Half-width w > 0 (finite), in length units.
-	W float64 `protobuf:"fixed64,1,opt,name=w,proto3" json:"w,omitempty"`
-	// Shape beta >= 0 (finite), dimensionless.
+	// Width W of the support [-W/2, W/2], in length units; finite, between
+	// 2^-1000 and 2^1000.
+	Width float64 `protobuf:"fixed64,1,opt,name=width,proto3" json:"width,omitempty"`
+	// Shape beta, dimensionless, 0 to 700 (beta = 0 is the box of width W).
 	Beta          float64 `protobuf:"fixed64,2,opt,name=beta,proto3" json:"beta,omitempty"`
 	unknownFields protoimpl.UnknownFields
 	sizeCache     protoimpl.SizeCache
@@ -786,9 +791,9 @@ func (*KaiserBessel) Descriptor() ([]byte, []int) {
 	return file_foldbound_v1_family_proto_rawDescGZIP(), []int{9}
 }
 
-func (x *KaiserBessel) GetW() float64 {
+func (x *KaiserBessel) GetWidth() float64 {
 	if x != nil {
-		return x.W
+		return x.Width
 	}
 	return 0
 }
@@ -1224,9 +1229,9 @@ const file_foldbound_v1_family_proto_rawDesc = "" +
 	"\x05Fejer\x12\x14\n" +
 	"\x05omega\x18\x01 \x01(\x01R\x05omega\"\x1f\n" +
 	"\aBSpline\x12\x14\n" +
-	"\x05order\x18\x01 \x01(\x05R\x05order\"0\n" +
-	"\fKaiserBessel\x12\f\n" +
-	"\x01w\x18\x01 \x01(\x01R\x01w\x12\x12\n" +
+	"\x05order\x18\x01 \x01(\x05R\x05order\"8\n" +
+	"\fKaiserBessel\x12\x14\n" +
+	"\x05width\x18\x01 \x01(\x01R\x05width\x12\x12\n" +
 	"\x04beta\x18\x02 \x01(\x01R\x04beta\"f\n" +
 	"\tAmplitude\x123\n" +
 	"\x06factor\x18\x01 \x01(\v2\x1b.foldbound.v1.ComplexNumberR\x06factor\x12$\n" +
