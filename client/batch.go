@@ -17,7 +17,8 @@ import (
 )
 
 // Item wraps a request as a Batch item with the given id. req must be an
-// *AliasSumRequest, *ErrorBudgetRequest or *PlanGridRequest; Item panics
+// *AliasSumRequest, *ErrorBudgetRequest, *PlanGridRequest or
+// *PlanScanRequest; Item panics
 // on any other type (a programming error).
 func Item(id string, req proto.Message) *pb.BatchRequest {
 	b := &pb.BatchRequest{Id: id}
@@ -28,6 +29,8 @@ func Item(id string, req proto.Message) *pb.BatchRequest {
 		b.Request = &pb.BatchRequest_ErrorBudget{ErrorBudget: r}
 	case *pb.PlanGridRequest:
 		b.Request = &pb.BatchRequest_PlanGrid{PlanGrid: r}
+	case *pb.PlanScanRequest:
+		b.Request = &pb.BatchRequest_PlanScan{PlanScan: r}
 	default:
 		panic(fmt.Sprintf("client.Item: %T is not a SamplingService request", req))
 	}

@@ -166,6 +166,14 @@ func (c *Client) PlanGrid(ctx context.Context, req *pb.PlanGridRequest, opts ...
 	return c.rpc.PlanGrid(ctx, req, opts...)
 }
 
+// PlanScan returns the sampling layouts of a tomography scan (sampling
+// mathematics, not a scan protocol; the response carries the caution).
+func (c *Client) PlanScan(ctx context.Context, req *pb.PlanScanRequest, opts ...grpc.CallOption) (*pb.PlanScanResponse, error) {
+	ctx, cancel := withDeadline(ctx, c.o.timeout)
+	defer cancel()
+	return c.rpc.PlanScan(ctx, req, opts...)
+}
+
 // Check asks the standard health service about service ("" for the
 // server as a whole).
 func (c *Client) Check(ctx context.Context, service string) (healthpb.HealthCheckResponse_ServingStatus, error) {

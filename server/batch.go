@@ -133,11 +133,16 @@ func (s *service) answer(ctx context.Context, req *pb.BatchRequest) (resp *pb.Ba
 			if res, err = s.planGrid(ctx, r.PlanGrid); err == nil {
 				resp.Result = &pb.BatchResponse_PlanGrid{PlanGrid: res}
 			}
+		case *pb.BatchRequest_PlanScan:
+			var res *pb.PlanScanResponse
+			if res, err = s.planScan(ctx, r.PlanScan); err == nil {
+				resp.Result = &pb.BatchResponse_PlanScan{PlanScan: res}
+			}
 		default:
 			if len(req.ProtoReflect().GetUnknown()) > 0 {
 				err = &unimplementedError{field: "request", what: "request kind not known to this server (is the client newer?)"}
 			} else {
-				err = &requestError{code: codes.InvalidArgument, violations: []violation{{"request", "one of alias_sum, error_budget or plan_grid is required"}}}
+				err = &requestError{code: codes.InvalidArgument, violations: []violation{{"request", "one of alias_sum, error_budget, plan_grid or plan_scan is required"}}}
 			}
 		}
 	}

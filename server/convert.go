@@ -6,6 +6,7 @@ import (
 
 	pb "foldbound/api/foldbound/v1"
 	"foldbound/bounds"
+	"foldbound/bounds/scan"
 )
 
 // This file converts validated wire requests to engine values and engine
@@ -250,6 +251,46 @@ func (o outputs) budget(b bounds.Budget) *pb.ErrorBudget {
 	// The rescaled parts are rounded up one by one; keep total ≥ their sum.
 	if s := bounds.Point(out.Aliasing).Add(bounds.Point(out.Truncation)).Add(bounds.Point(out.Rounding)).Hi; s > out.Total {
 		out.Total = s
+	}
+	return out
+}
+
+func wireScanPlan(r scan.Result) *pb.ScanPlan {
+	p := &pb.ScanPlan{
+		Geometry:     pb.ScanGeometry_SCAN_GEOMETRY_PARALLEL_BEAM,
+		Radius:       r.Radius,
+		Bandwidth:    r.Bandwidth,
+		BandwidthBy:  r.BandwidthBy,
+		SourceRadius: r.SourceRadius,
+		FanAngle:     r.FanAngle,
+		ShortScan:    r.ShortScan,
+		Standard:     wireScanLayout(r.Standard),
+		Interlaced:   wireScanLayout(r.Interlaced),
+		Caution:      r.Caution,
+	}
+	if r.Geometry == scan.FanBeam {
+		p.Geometry = pb.ScanGeometry_SCAN_GEOMETRY_FAN_BEAM
+	}
+	return p
+}
+
+func wireScanLayout(l scan.Layout) *pb.ScanLayout {
+	out := &pb.ScanLayout{
+		Scheme:          pb.ScanScheme_SCAN_SCHEME_STANDARD,
+		Offered:         l.Offered,
+		DetectorSpacing: l.DetectorSpacing,
+		DetectorAngle:   l.DetectorAngle,
+		Detectors:       int64(l.Detectors),
+		Views:           int64(l.Views),
+		Arc:             l.Arc,
+		ViewStep:        l.ViewStep,
+		Samples:         l.Samples,
+		Condition:       l.Condition,
+		Source:          l.Source,
+		Note:            l.Note,
+	}
+	if l.Scheme == scan.Interlaced {
+		out.Scheme = pb.ScanScheme_SCAN_SCHEME_INTERLACED
 	}
 	return out
 }

@@ -7,6 +7,7 @@ import (
 
 	pb "foldbound/api/foldbound/v1"
 	"foldbound/bounds"
+	"foldbound/bounds/scan"
 )
 
 // service implements foldbound.v1.SamplingService. It is stateless: the
@@ -40,6 +41,15 @@ func (s *service) ErrorBudget(ctx context.Context, req *pb.ErrorBudgetRequest) (
 // PlanGrid implements SamplingService.PlanGrid.
 func (s *service) PlanGrid(ctx context.Context, req *pb.PlanGridRequest) (*pb.PlanGridResponse, error) {
 	res, err := s.planGrid(ctx, req)
+	if err != nil {
+		return nil, toStatus(err).Err()
+	}
+	return res, nil
+}
+
+// PlanScan implements SamplingService.PlanScan.
+func (s *service) PlanScan(ctx context.Context, req *pb.PlanScanRequest) (*pb.PlanScanResponse, error) {
+	res, err := s.planScan(ctx, req)
 	if err != nil {
 		return nil, toStatus(err).Err()
 	}
@@ -153,4 +163,25 @@ func (s *service) planGrid(ctx context.Context, req *pb.PlanGridRequest) (*pb.Pl
 		return nil, err
 	}
 	return nil, &unimplementedError{what: "PlanGrid: the engine's grid planner is not in this build yet"}
+}
+
+// planScan answers a PlanScanRequest. The engine's plan is closed-form and
+// quick; it takes no context.
+func (s *service) planScan(ctx context.Context, req *pb.PlanScanRequest) (*pb.PlanScanResponse, error) {
+	if err := s.lim.checkPlanScan(req); err != nil {
+		return nil, err
+	}
+	if err := ctx.Err(); err != nil {
+		return nil, err
+	}
+	r := scan.Request{Geometry: scan.ParallelBeam, Radius: req.GetRadius(), Bandwidth: req.GetBandwidth(),
+		Resolution: req.GetResolution(), SourceRadius: req.GetSourceRadius(), ShortScan: req.GetShortScan()}
+	if req.GetGeometry() == pb.ScanGeometry_SCAN_GEOMETRY_FAN_BEAM {
+		r.Geometry = scan.FanBeam
+	}
+	res, err := scan.Plan(r)
+	if err != nil {
+		return nil, scanPaths(err)
+	}
+	return &pb.PlanScanResponse{Plan: wireScanPlan(res)}, nil
 }

@@ -113,6 +113,16 @@ func wirePathsND(err error) error {
 	return &bounds.ParamError{Param: p, Reason: pe.Reason, Err: pe.Err}
 }
 
+// scanPaths renames "scan.radius" and the like to the request's field
+// names.
+func scanPaths(err error) error {
+	var pe *bounds.ParamError
+	if !errors.As(err, &pe) {
+		return err
+	}
+	return &bounds.ParamError{Param: strings.TrimPrefix(pe.Param, "scan."), Reason: pe.Reason, Err: pe.Err}
+}
+
 // toStatus maps any error of validation, conversion or the engine to a
 // gRPC status. It is the only place in the package that chooses codes.
 //

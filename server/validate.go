@@ -419,3 +419,40 @@ func (lim Limits) checkPlanGrid(r *pb.PlanGridRequest) (int, error) {
 	c.settings("settings", r.GetSettings())
 	return dim, c.err()
 }
+
+// checkPlanScan validates a PlanScanRequest.
+func (lim Limits) checkPlanScan(r *pb.PlanScanRequest) error {
+	c := &checker{lim: lim}
+	c.unknownFields("", r.ProtoReflect())
+	geo := r.GetGeometry()
+	if geo != pb.ScanGeometry_SCAN_GEOMETRY_PARALLEL_BEAM && geo != pb.ScanGeometry_SCAN_GEOMETRY_FAN_BEAM {
+		c.bad("geometry", "must be SCAN_GEOMETRY_PARALLEL_BEAM or SCAN_GEOMETRY_FAN_BEAM, got %v", geo)
+	}
+	c.positive("radius", r.GetRadius())
+	bw, res := r.GetBandwidth(), r.GetResolution()
+	switch {
+	case bw != 0 && res != 0:
+		c.bad("resolution", "give either bandwidth or resolution, not both")
+	case bw != 0:
+		c.positive("bandwidth", bw)
+	case res != 0:
+		c.positive("resolution", res)
+	default:
+		c.bad("bandwidth", "one of bandwidth or resolution is required (> 0)")
+	}
+	switch geo {
+	case pb.ScanGeometry_SCAN_GEOMETRY_PARALLEL_BEAM:
+		if r.GetSourceRadius() != 0 {
+			c.bad("source_radius", "applies to the fan beam only; must be 0, got %g", r.GetSourceRadius())
+		}
+		if r.GetShortScan() {
+			c.bad("short_scan", "applies to the fan beam only")
+		}
+	case pb.ScanGeometry_SCAN_GEOMETRY_FAN_BEAM:
+		c.positive("source_radius", r.GetSourceRadius())
+		if R, rho := r.GetSourceRadius(), r.GetRadius(); finite(R) && finite(rho) && R > 0 && rho > 0 && !(R > rho) {
+			c.bad("source_radius", "must exceed radius (the source lies outside the object), got %g ≤ %g", R, rho)
+		}
+	}
+	return c.err()
+}

@@ -109,6 +109,10 @@ func summary(r *pb.BatchResponse) string {
 		b := x.ErrorBudget.GetBudget()
 		return fmt.Sprintf("budget: total %s (aliasing %s, truncation %s, rounding %s)",
 			fmtBound(b.GetTotal()), fmtBound(b.GetAliasing()), fmtBound(b.GetTruncation()), fmtBound(b.GetRounding()))
+	case *pb.BatchResponse_PlanScan:
+		p := x.PlanScan.GetPlan()
+		return fmt.Sprintf("scan plan: standard %d, interlaced %d line integrals (sampling mathematics, not a scan protocol)",
+			p.GetStandard().GetSamples(), p.GetInterlaced().GetSamples())
 	case *pb.BatchResponse_PlanGrid:
 		p := x.PlanGrid
 		return fmt.Sprintf("plan: %d samples, total %s", p.GetTotalSamples(), fmtBound(p.GetBudget().GetTotal()))

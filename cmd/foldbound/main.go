@@ -8,6 +8,7 @@
 //	foldbound alias  …              sampled sum, exact transform, error
 //	foldbound budget …              certified error budget of a grid
 //	foldbound plan   …              cheapest certified grid
+//	foldbound scan   …              tomography scan sampling (mathematics only)
 //	foldbound batch  --request F    many requests over one stream
 //	foldbound demo                  a worked scenario, end to end
 package main

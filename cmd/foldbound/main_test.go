@@ -153,6 +153,33 @@ func TestPlanCommand(t *testing.T) {
 	}
 }
 
+func TestScanCommand(t *testing.T) {
+	out, errOut, code := runCLI(t, "scan", "--radius", "20", "--resolution", "0.25")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	for _, want := range []string{"CAUTION: ", "not a scan protocol", "standard", "interlaced", "line integrals"} {
+		if !strings.Contains(out, want) {
+			t.Errorf("human output lacks %q:\n%s", want, out)
+		}
+	}
+	out, errOut, code = runCLI(t, "scan", "--geometry", "fan", "--radius", "250", "--bandwidth", "6.283185307179586", "--source-radius", "570", "--json")
+	if code != 0 {
+		t.Fatalf("--json: exit %d: %s", code, errOut)
+	}
+	var res pb.PlanScanResponse
+	if err := protojson.Unmarshal([]byte(out), &res); err != nil {
+		t.Fatal(err)
+	}
+	// Fan angle 2·arcsin(ρ/R) (elementary geometry).
+	if got, want := res.GetPlan().GetFanAngle(), 2*math.Asin(250.0/570); math.Abs(got-want) > 1e-15 {
+		t.Errorf("fan angle = %g, want %g", got, want)
+	}
+	if !strings.Contains(res.GetPlan().GetCaution(), "licensed practice") {
+		t.Errorf("--json output lacks the caution: %v", res.GetPlan().GetCaution())
+	}
+}
+
 func TestBadInputFromTheCommandLine(t *testing.T) {
 	tests := []struct {
 		name string

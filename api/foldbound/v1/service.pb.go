@@ -741,20 +741,162 @@ func (x *PlanGridResponse) GetWorstCaseShift() bool {
 	return false
 }
 
+// PlanScanRequest describes the object to be scanned. Lengths are in any
+// one unit (say mm); the band limit is in radians per that unit.
+type PlanScanRequest struct {
+	state protoimpl.MessageState `protogen:"open.v1"`
+	// Ray geometry. Required.
+	Geometry ScanGeometry `protobuf:"varint,1,opt,name=geometry,proto3,enum=foldbound.v1.ScanGeometry" json:"geometry,omitempty"`
+	// Radius rho > 0 of the disc, centred on the rotation axis, outside
+	// which the object is zero.
+	Radius float64 `protobuf:"fixed64,2,opt,name=radius,proto3" json:"radius,omitempty"`
+	// Essential band limit Omega > 0 (the 2-D transform, angular convention,
+	// is negligible beyond it). Give either bandwidth or resolution.
+	Bandwidth float64 `protobuf:"fixed64,3,opt,name=bandwidth,proto3" json:"bandwidth,omitempty"`
+	// Resolution delta > 0, read as Omega = pi / delta when bandwidth is 0.
+	Resolution float64 `protobuf:"fixed64,4,opt,name=resolution,proto3" json:"resolution,omitempty"`
+	// Source radius R > radius (fan beam only; 0 for parallel beam).
+	SourceRadius float64 `protobuf:"fixed64,5,opt,name=source_radius,json=sourceRadius,proto3" json:"source_radius,omitempty"`
+	// Sources over 180 degrees plus the fan angle instead of 360 degrees
+	// (fan beam only).
+	ShortScan     bool `protobuf:"varint,6,opt,name=short_scan,json=shortScan,proto3" json:"short_scan,omitempty"`
+	unknownFields protoimpl.UnknownFields
+	sizeCache     protoimpl.SizeCache
+}
+
+func (x *PlanScanRequest) Reset() {
+	*x = PlanScanRequest{}
+	mi := &file_foldbound_v1_service_proto_msgTypes[6]
+	ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
+	ms.StoreMessageInfo(mi)
+}
+
+func (x *PlanScanRequest) String() string {
+	return protoimpl.X.MessageStringOf(x)
+}
+
+func (*PlanScanRequest) ProtoMessage() {}
+
+func (x *PlanScanRequest) ProtoReflect() protoreflect.Message {
+	mi := &file_foldbound_v1_service_proto_msgTypes[6]
+	if x != nil {
+		ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
+		if ms.LoadMessageInfo() == nil {
+			ms.StoreMessageInfo(mi)
+		}
+		return ms
+	}
+	return mi.MessageOf(x)
+}
+
+// Deprecated: Use PlanScanRequest.ProtoReflect.Descriptor instead.
+func (*PlanScanRequest) Descriptor() ([]byte, []int) {
+	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{6}
+}
+
+func (x *PlanScanRequest) GetGeometry() ScanGeometry {
+	if x != nil {
+		return x.Geometry
+	}
+	return ScanGeometry_SCAN_GEOMETRY_UNSPECIFIED
+}
+
+func (x *PlanScanRequest) GetRadius() float64 {
+	if x != nil {
+		return x.Radius
+	}
+	return 0
+}
+
+func (x *PlanScanRequest) GetBandwidth() float64 {
+	if x != nil {
+		return x.Bandwidth
+	}
+	return 0
+}
+
+func (x *PlanScanRequest) GetResolution() float64 {
+	if x != nil {
+		return x.Resolution
+	}
+	return 0
+}
+
+func (x *PlanScanRequest) GetSourceRadius() float64 {
+	if x != nil {
+		return x.SourceRadius
+	}
+	return 0
+}
+
+func (x *PlanScanRequest) GetShortScan() bool {
+	if x != nil {
+		return x.ShortScan
+	}
+	return false
+}
+
+// PlanScanResponse is the scan plan.
+type PlanScanResponse struct {
+	state protoimpl.MessageState `protogen:"open.v1"`
+	// The plan with its caution.
+	Plan          *ScanPlan `protobuf:"bytes,1,opt,name=plan,proto3" json:"plan,omitempty"`
+	unknownFields protoimpl.UnknownFields
+	sizeCache     protoimpl.SizeCache
+}
+
+func (x *PlanScanResponse) Reset() {
+	*x = PlanScanResponse{}
+	mi := &file_foldbound_v1_service_proto_msgTypes[7]
+	ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
+	ms.StoreMessageInfo(mi)
+}
+
+func (x *PlanScanResponse) String() string {
+	return protoimpl.X.MessageStringOf(x)
+}
+
+func (*PlanScanResponse) ProtoMessage() {}
+
+func (x *PlanScanResponse) ProtoReflect() protoreflect.Message {
+	mi := &file_foldbound_v1_service_proto_msgTypes[7]
+	if x != nil {
+		ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
+		if ms.LoadMessageInfo() == nil {
+			ms.StoreMessageInfo(mi)
+		}
+		return ms
+	}
+	return mi.MessageOf(x)
+}
+
+// Deprecated: Use PlanScanResponse.ProtoReflect.Descriptor instead.
+func (*PlanScanResponse) Descriptor() ([]byte, []int) {
+	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{7}
+}
+
+func (x *PlanScanResponse) GetPlan() *ScanPlan {
+	if x != nil {
+		return x.Plan
+	}
+	return nil
+}
+
 // BatchRequest is one item of a Batch stream.
 type BatchRequest struct {
 	state protoimpl.MessageState `protogen:"open.v1"`
 	// Caller-chosen id, 1 to 128 bytes, echoed in the response. Ids should
 	// be unique within a batch; the server does not check.
 	Id string `protobuf:"bytes,1,opt,name=id,proto3" json:"id,omitempty"`
-	// The question. Exactly one must be set. Field numbers 5-14 are kept
-	// for lattice and scan-geometry requests.
+	// The question. Exactly one must be set. Field numbers 6-14 are kept
+	// for lattice requests.
 	//
 	// Types that are valid to be assigned to Request:
 	//
 	//	*BatchRequest_AliasSum
 	//	*BatchRequest_ErrorBudget
 	//	*BatchRequest_PlanGrid
+	//	*BatchRequest_PlanScan
 	Request       isBatchRequest_Request `protobuf_oneof:"request"`
 	unknownFields protoimpl.UnknownFields
 	sizeCache     protoimpl.SizeCache
@@ -762,7 +904,7 @@ type BatchRequest struct {
 
 func (x *BatchRequest) Reset() {
 	*x = BatchRequest{}
-	mi := &file_foldbound_v1_service_proto_msgTypes[6]
+	mi := &file_foldbound_v1_service_proto_msgTypes[8]
 	ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
 	ms.StoreMessageInfo(mi)
 }
@@ -774,7 +916,7 @@ func (x *BatchRequest) String() string {
 func (*BatchRequest) ProtoMessage() {}
 
 func (x *BatchRequest) ProtoReflect() protoreflect.Message {
-	mi := &file_foldbound_v1_service_proto_msgTypes[6]
+	mi := &file_foldbound_v1_service_proto_msgTypes[8]
 	if x != nil {
 		ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
 		if ms.LoadMessageInfo() == nil {
@@ -787,7 +929,7 @@ func (x *BatchRequest) ProtoReflect() protoreflect.Message {
 
 // Deprecated: Use BatchRequest.ProtoReflect.Descriptor instead.
 func (*BatchRequest) Descriptor() ([]byte, []int) {
-	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{6}
+	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{8}
 }
 
 func (x *BatchRequest) GetId() string {
@@ -831,6 +973,15 @@ func (x *BatchRequest) GetPlanGrid() *PlanGridRequest {
 	return nil
 }
 
+func (x *BatchRequest) GetPlanScan() *PlanScanRequest {
+	if x != nil {
+		if x, ok := x.Request.(*BatchRequest_PlanScan); ok {
+			return x.PlanScan
+		}
+	}
+	return nil
+}
+
 type isBatchRequest_Request interface {
 	isBatchRequest_Request()
 }
@@ -850,11 +1001,18 @@ type BatchRequest_PlanGrid struct {
 	PlanGrid *PlanGridRequest `protobuf:"bytes,4,opt,name=plan_grid,json=planGrid,proto3,oneof"`
 }
 
+type BatchRequest_PlanScan struct {
+	// A scan plan.
+	PlanScan *PlanScanRequest `protobuf:"bytes,5,opt,name=plan_scan,json=planScan,proto3,oneof"`
+}
+
 func (*BatchRequest_AliasSum) isBatchRequest_Request() {}
 
 func (*BatchRequest_ErrorBudget) isBatchRequest_Request() {}
 
 func (*BatchRequest_PlanGrid) isBatchRequest_Request() {}
+
+func (*BatchRequest_PlanScan) isBatchRequest_Request() {}
 
 // BatchResponse answers one BatchRequest.
 type BatchResponse struct {
@@ -868,6 +1026,7 @@ type BatchResponse struct {
 	//	*BatchResponse_AliasSum
 	//	*BatchResponse_ErrorBudget
 	//	*BatchResponse_PlanGrid
+	//	*BatchResponse_PlanScan
 	//	*BatchResponse_Error
 	Result        isBatchResponse_Result `protobuf_oneof:"result"`
 	unknownFields protoimpl.UnknownFields
@@ -876,7 +1035,7 @@ type BatchResponse struct {
 
 func (x *BatchResponse) Reset() {
 	*x = BatchResponse{}
-	mi := &file_foldbound_v1_service_proto_msgTypes[7]
+	mi := &file_foldbound_v1_service_proto_msgTypes[9]
 	ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
 	ms.StoreMessageInfo(mi)
 }
@@ -888,7 +1047,7 @@ func (x *BatchResponse) String() string {
 func (*BatchResponse) ProtoMessage() {}
 
 func (x *BatchResponse) ProtoReflect() protoreflect.Message {
-	mi := &file_foldbound_v1_service_proto_msgTypes[7]
+	mi := &file_foldbound_v1_service_proto_msgTypes[9]
 	if x != nil {
 		ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
 		if ms.LoadMessageInfo() == nil {
@@ -901,7 +1060,7 @@ func (x *BatchResponse) ProtoReflect() protoreflect.Message {
 
 // Deprecated: Use BatchResponse.ProtoReflect.Descriptor instead.
 func (*BatchResponse) Descriptor() ([]byte, []int) {
-	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{7}
+	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{9}
 }
 
 func (x *BatchResponse) GetId() string {
@@ -945,6 +1104,15 @@ func (x *BatchResponse) GetPlanGrid() *PlanGridResponse {
 	return nil
 }
 
+func (x *BatchResponse) GetPlanScan() *PlanScanResponse {
+	if x != nil {
+		if x, ok := x.Result.(*BatchResponse_PlanScan); ok {
+			return x.PlanScan
+		}
+	}
+	return nil
+}
+
 func (x *BatchResponse) GetError() *ItemError {
 	if x != nil {
 		if x, ok := x.Result.(*BatchResponse_Error); ok {
@@ -973,6 +1141,11 @@ type BatchResponse_PlanGrid struct {
 	PlanGrid *PlanGridResponse `protobuf:"bytes,4,opt,name=plan_grid,json=planGrid,proto3,oneof"`
 }
 
+type BatchResponse_PlanScan struct {
+	// Result of a scan plan.
+	PlanScan *PlanScanResponse `protobuf:"bytes,5,opt,name=plan_scan,json=planScan,proto3,oneof"`
+}
+
 type BatchResponse_Error struct {
 	// The error the matching unary call would have returned.
 	Error *ItemError `protobuf:"bytes,15,opt,name=error,proto3,oneof"`
@@ -983,6 +1156,8 @@ func (*BatchResponse_AliasSum) isBatchResponse_Result() {}
 func (*BatchResponse_ErrorBudget) isBatchResponse_Result() {}
 
 func (*BatchResponse_PlanGrid) isBatchResponse_Result() {}
+
+func (*BatchResponse_PlanScan) isBatchResponse_Result() {}
 
 func (*BatchResponse_Error) isBatchResponse_Result() {}
 
@@ -1004,7 +1179,7 @@ type ItemError struct {
 
 func (x *ItemError) Reset() {
 	*x = ItemError{}
-	mi := &file_foldbound_v1_service_proto_msgTypes[8]
+	mi := &file_foldbound_v1_service_proto_msgTypes[10]
 	ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
 	ms.StoreMessageInfo(mi)
 }
@@ -1016,7 +1191,7 @@ func (x *ItemError) String() string {
 func (*ItemError) ProtoMessage() {}
 
 func (x *ItemError) ProtoReflect() protoreflect.Message {
-	mi := &file_foldbound_v1_service_proto_msgTypes[8]
+	mi := &file_foldbound_v1_service_proto_msgTypes[10]
 	if x != nil {
 		ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
 		if ms.LoadMessageInfo() == nil {
@@ -1029,7 +1204,7 @@ func (x *ItemError) ProtoReflect() protoreflect.Message {
 
 // Deprecated: Use ItemError.ProtoReflect.Descriptor instead.
 func (*ItemError) Descriptor() ([]byte, []int) {
-	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{8}
+	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{10}
 }
 
 func (x *ItemError) GetCode() int32 {
@@ -1067,7 +1242,7 @@ type FieldViolation struct {
 
 func (x *FieldViolation) Reset() {
 	*x = FieldViolation{}
-	mi := &file_foldbound_v1_service_proto_msgTypes[9]
+	mi := &file_foldbound_v1_service_proto_msgTypes[11]
 	ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
 	ms.StoreMessageInfo(mi)
 }
@@ -1079,7 +1254,7 @@ func (x *FieldViolation) String() string {
 func (*FieldViolation) ProtoMessage() {}
 
 func (x *FieldViolation) ProtoReflect() protoreflect.Message {
-	mi := &file_foldbound_v1_service_proto_msgTypes[9]
+	mi := &file_foldbound_v1_service_proto_msgTypes[11]
 	if x != nil {
 		ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
 		if ms.LoadMessageInfo() == nil {
@@ -1092,7 +1267,7 @@ func (x *FieldViolation) ProtoReflect() protoreflect.Message {
 
 // Deprecated: Use FieldViolation.ProtoReflect.Descriptor instead.
 func (*FieldViolation) Descriptor() ([]byte, []int) {
-	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{9}
+	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{11}
 }
 
 func (x *FieldViolation) GetField() string {
@@ -1113,7 +1288,7 @@ var File_foldbound_v1_service_proto protoreflect.FileDescriptor
 
 const file_foldbound_v1_service_proto_rawDesc = "" +
 	"\n" +
-	"\x1afoldbound/v1/service.proto\x12\ffoldbound.v1\x1a\x19foldbound/v1/budget.proto\x1a\x1dfoldbound/v1/convention.proto\x1a\x1bfoldbound/v1/envelope.proto\x1a\x19foldbound/v1/family.proto\x1a\x17foldbound/v1/grid.proto\x1a\x1afoldbound/v1/numbers.proto\x1a\x17foldbound/v1/plan.proto\"\xe7\x01\n" +
+	"\x1afoldbound/v1/service.proto\x12\ffoldbound.v1\x1a\x19foldbound/v1/budget.proto\x1a\x1dfoldbound/v1/convention.proto\x1a\x1bfoldbound/v1/envelope.proto\x1a\x19foldbound/v1/family.proto\x1a\x17foldbound/v1/grid.proto\x1a\x1afoldbound/v1/numbers.proto\x1a\x17foldbound/v1/plan.proto\x1a\x17foldbound/v1/scan.proto\"\xe7\x01\n" +
 	"\x0fAliasSumRequest\x12,\n" +
 	"\x06family\x18\x01 \x01(\v2\x14.foldbound.v1.FamilyR\x06family\x12(\n" +
 	"\x05grids\x18\x02 \x03(\v2\x12.foldbound.v1.GridR\x05grids\x12\x0e\n" +
@@ -1184,18 +1359,32 @@ const file_foldbound_v1_service_proto_rawDesc = "" +
 	"convention\x18\x06 \x01(\v2\x1c.foldbound.v1.ConventionUsedR\n" +
 	"convention\x12\x18\n" +
 	"\asubject\x18\a \x01(\tR\asubject\x12(\n" +
-	"\x10worst_case_shift\x18\b \x01(\bR\x0eworstCaseShift\"\xec\x01\n" +
+	"\x10worst_case_shift\x18\b \x01(\bR\x0eworstCaseShift\"\xe3\x01\n" +
+	"\x0fPlanScanRequest\x126\n" +
+	"\bgeometry\x18\x01 \x01(\x0e2\x1a.foldbound.v1.ScanGeometryR\bgeometry\x12\x16\n" +
+	"\x06radius\x18\x02 \x01(\x01R\x06radius\x12\x1c\n" +
+	"\tbandwidth\x18\x03 \x01(\x01R\tbandwidth\x12\x1e\n" +
+	"\n" +
+	"resolution\x18\x04 \x01(\x01R\n" +
+	"resolution\x12#\n" +
+	"\rsource_radius\x18\x05 \x01(\x01R\fsourceRadius\x12\x1d\n" +
+	"\n" +
+	"short_scan\x18\x06 \x01(\bR\tshortScan\">\n" +
+	"\x10PlanScanResponse\x12*\n" +
+	"\x04plan\x18\x01 \x01(\v2\x16.foldbound.v1.ScanPlanR\x04plan\"\xaa\x02\n" +
 	"\fBatchRequest\x12\x0e\n" +
 	"\x02id\x18\x01 \x01(\tR\x02id\x12<\n" +
 	"\talias_sum\x18\x02 \x01(\v2\x1d.foldbound.v1.AliasSumRequestH\x00R\baliasSum\x12E\n" +
 	"\ferror_budget\x18\x03 \x01(\v2 .foldbound.v1.ErrorBudgetRequestH\x00R\verrorBudget\x12<\n" +
-	"\tplan_grid\x18\x04 \x01(\v2\x1d.foldbound.v1.PlanGridRequestH\x00R\bplanGridB\t\n" +
-	"\arequest\"\xa0\x02\n" +
+	"\tplan_grid\x18\x04 \x01(\v2\x1d.foldbound.v1.PlanGridRequestH\x00R\bplanGrid\x12<\n" +
+	"\tplan_scan\x18\x05 \x01(\v2\x1d.foldbound.v1.PlanScanRequestH\x00R\bplanScanB\t\n" +
+	"\arequest\"\xdf\x02\n" +
 	"\rBatchResponse\x12\x0e\n" +
 	"\x02id\x18\x01 \x01(\tR\x02id\x12=\n" +
 	"\talias_sum\x18\x02 \x01(\v2\x1e.foldbound.v1.AliasSumResponseH\x00R\baliasSum\x12F\n" +
 	"\ferror_budget\x18\x03 \x01(\v2!.foldbound.v1.ErrorBudgetResponseH\x00R\verrorBudget\x12=\n" +
-	"\tplan_grid\x18\x04 \x01(\v2\x1e.foldbound.v1.PlanGridResponseH\x00R\bplanGrid\x12/\n" +
+	"\tplan_grid\x18\x04 \x01(\v2\x1e.foldbound.v1.PlanGridResponseH\x00R\bplanGrid\x12=\n" +
+	"\tplan_scan\x18\x05 \x01(\v2\x1e.foldbound.v1.PlanScanResponseH\x00R\bplanScan\x12/\n" +
 	"\x05error\x18\x0f \x01(\v2\x17.foldbound.v1.ItemErrorH\x00R\x05errorB\b\n" +
 	"\x06result\"\x82\x01\n" +
 	"\tItemError\x12\x12\n" +
@@ -1204,11 +1393,12 @@ const file_foldbound_v1_service_proto_rawDesc = "" +
 	"\x10field_violations\x18\x03 \x03(\v2\x1c.foldbound.v1.FieldViolationR\x0ffieldViolations\"H\n" +
 	"\x0eFieldViolation\x12\x14\n" +
 	"\x05field\x18\x01 \x01(\tR\x05field\x12 \n" +
-	"\vdescription\x18\x02 \x01(\tR\vdescription2\xc1\x02\n" +
+	"\vdescription\x18\x02 \x01(\tR\vdescription2\x8c\x03\n" +
 	"\x0fSamplingService\x12I\n" +
 	"\bAliasSum\x12\x1d.foldbound.v1.AliasSumRequest\x1a\x1e.foldbound.v1.AliasSumResponse\x12R\n" +
 	"\vErrorBudget\x12 .foldbound.v1.ErrorBudgetRequest\x1a!.foldbound.v1.ErrorBudgetResponse\x12I\n" +
-	"\bPlanGrid\x12\x1d.foldbound.v1.PlanGridRequest\x1a\x1e.foldbound.v1.PlanGridResponse\x12D\n" +
+	"\bPlanGrid\x12\x1d.foldbound.v1.PlanGridRequest\x1a\x1e.foldbound.v1.PlanGridResponse\x12I\n" +
+	"\bPlanScan\x12\x1d.foldbound.v1.PlanScanRequest\x1a\x1e.foldbound.v1.PlanScanResponse\x12D\n" +
 	"\x05Batch\x12\x1a.foldbound.v1.BatchRequest\x1a\x1b.foldbound.v1.BatchResponse(\x010\x01B(Z&foldbound/api/foldbound/v1;foldboundv1b\x06proto3"
 
 var (
@@ -1223,7 +1413,7 @@ func file_foldbound_v1_service_proto_rawDescGZIP() []byte {
 	return file_foldbound_v1_service_proto_rawDescData
 }
 
-var file_foldbound_v1_service_proto_msgTypes = make([]protoimpl.MessageInfo, 10)
+var file_foldbound_v1_service_proto_msgTypes = make([]protoimpl.MessageInfo, 12)
 var file_foldbound_v1_service_proto_goTypes = []any{
 	(*AliasSumRequest)(nil),     // 0: foldbound.v1.AliasSumRequest
 	(*AliasSumResponse)(nil),    // 1: foldbound.v1.AliasSumResponse
@@ -1231,76 +1421,86 @@ var file_foldbound_v1_service_proto_goTypes = []any{
 	(*ErrorBudgetResponse)(nil), // 3: foldbound.v1.ErrorBudgetResponse
 	(*PlanGridRequest)(nil),     // 4: foldbound.v1.PlanGridRequest
 	(*PlanGridResponse)(nil),    // 5: foldbound.v1.PlanGridResponse
-	(*BatchRequest)(nil),        // 6: foldbound.v1.BatchRequest
-	(*BatchResponse)(nil),       // 7: foldbound.v1.BatchResponse
-	(*ItemError)(nil),           // 8: foldbound.v1.ItemError
-	(*FieldViolation)(nil),      // 9: foldbound.v1.FieldViolation
-	(*Family)(nil),              // 10: foldbound.v1.Family
-	(*Grid)(nil),                // 11: foldbound.v1.Grid
-	(Convention)(0),             // 12: foldbound.v1.Convention
-	(*Settings)(nil),            // 13: foldbound.v1.Settings
-	(*ComplexInterval)(nil),     // 14: foldbound.v1.ComplexInterval
-	(*Method)(nil),              // 15: foldbound.v1.Method
-	(*ConventionUsed)(nil),      // 16: foldbound.v1.ConventionUsed
-	(*Envelopes)(nil),           // 17: foldbound.v1.Envelopes
-	(*Band)(nil),                // 18: foldbound.v1.Band
-	(*ErrorBudget)(nil),         // 19: foldbound.v1.ErrorBudget
-	(*CostModel)(nil),           // 20: foldbound.v1.CostModel
-	(*PlannedAxis)(nil),         // 21: foldbound.v1.PlannedAxis
-	(*Verification)(nil),        // 22: foldbound.v1.Verification
+	(*PlanScanRequest)(nil),     // 6: foldbound.v1.PlanScanRequest
+	(*PlanScanResponse)(nil),    // 7: foldbound.v1.PlanScanResponse
+	(*BatchRequest)(nil),        // 8: foldbound.v1.BatchRequest
+	(*BatchResponse)(nil),       // 9: foldbound.v1.BatchResponse
+	(*ItemError)(nil),           // 10: foldbound.v1.ItemError
+	(*FieldViolation)(nil),      // 11: foldbound.v1.FieldViolation
+	(*Family)(nil),              // 12: foldbound.v1.Family
+	(*Grid)(nil),                // 13: foldbound.v1.Grid
+	(Convention)(0),             // 14: foldbound.v1.Convention
+	(*Settings)(nil),            // 15: foldbound.v1.Settings
+	(*ComplexInterval)(nil),     // 16: foldbound.v1.ComplexInterval
+	(*Method)(nil),              // 17: foldbound.v1.Method
+	(*ConventionUsed)(nil),      // 18: foldbound.v1.ConventionUsed
+	(*Envelopes)(nil),           // 19: foldbound.v1.Envelopes
+	(*Band)(nil),                // 20: foldbound.v1.Band
+	(*ErrorBudget)(nil),         // 21: foldbound.v1.ErrorBudget
+	(*CostModel)(nil),           // 22: foldbound.v1.CostModel
+	(*PlannedAxis)(nil),         // 23: foldbound.v1.PlannedAxis
+	(*Verification)(nil),        // 24: foldbound.v1.Verification
+	(ScanGeometry)(0),           // 25: foldbound.v1.ScanGeometry
+	(*ScanPlan)(nil),            // 26: foldbound.v1.ScanPlan
 }
 var file_foldbound_v1_service_proto_depIdxs = []int32{
-	10, // 0: foldbound.v1.AliasSumRequest.family:type_name -> foldbound.v1.Family
-	11, // 1: foldbound.v1.AliasSumRequest.grids:type_name -> foldbound.v1.Grid
-	12, // 2: foldbound.v1.AliasSumRequest.convention:type_name -> foldbound.v1.Convention
-	13, // 3: foldbound.v1.AliasSumRequest.settings:type_name -> foldbound.v1.Settings
-	14, // 4: foldbound.v1.AliasSumResponse.sampled:type_name -> foldbound.v1.ComplexInterval
-	14, // 5: foldbound.v1.AliasSumResponse.exact:type_name -> foldbound.v1.ComplexInterval
-	14, // 6: foldbound.v1.AliasSumResponse.error:type_name -> foldbound.v1.ComplexInterval
-	14, // 7: foldbound.v1.AliasSumResponse.alias:type_name -> foldbound.v1.ComplexInterval
-	14, // 8: foldbound.v1.AliasSumResponse.truncation:type_name -> foldbound.v1.ComplexInterval
-	15, // 9: foldbound.v1.AliasSumResponse.method:type_name -> foldbound.v1.Method
-	16, // 10: foldbound.v1.AliasSumResponse.convention:type_name -> foldbound.v1.ConventionUsed
-	10, // 11: foldbound.v1.ErrorBudgetRequest.family:type_name -> foldbound.v1.Family
-	17, // 12: foldbound.v1.ErrorBudgetRequest.envelopes:type_name -> foldbound.v1.Envelopes
-	11, // 13: foldbound.v1.ErrorBudgetRequest.grids:type_name -> foldbound.v1.Grid
-	18, // 14: foldbound.v1.ErrorBudgetRequest.frequency:type_name -> foldbound.v1.Band
-	12, // 15: foldbound.v1.ErrorBudgetRequest.convention:type_name -> foldbound.v1.Convention
-	13, // 16: foldbound.v1.ErrorBudgetRequest.settings:type_name -> foldbound.v1.Settings
-	19, // 17: foldbound.v1.ErrorBudgetResponse.budget:type_name -> foldbound.v1.ErrorBudget
-	16, // 18: foldbound.v1.ErrorBudgetResponse.convention:type_name -> foldbound.v1.ConventionUsed
-	18, // 19: foldbound.v1.ErrorBudgetResponse.frequency:type_name -> foldbound.v1.Band
-	10, // 20: foldbound.v1.PlanGridRequest.family:type_name -> foldbound.v1.Family
-	17, // 21: foldbound.v1.PlanGridRequest.envelopes:type_name -> foldbound.v1.Envelopes
-	18, // 22: foldbound.v1.PlanGridRequest.frequency:type_name -> foldbound.v1.Band
-	20, // 23: foldbound.v1.PlanGridRequest.cost:type_name -> foldbound.v1.CostModel
-	12, // 24: foldbound.v1.PlanGridRequest.convention:type_name -> foldbound.v1.Convention
-	13, // 25: foldbound.v1.PlanGridRequest.settings:type_name -> foldbound.v1.Settings
-	21, // 26: foldbound.v1.PlanGridResponse.axes:type_name -> foldbound.v1.PlannedAxis
-	19, // 27: foldbound.v1.PlanGridResponse.budget:type_name -> foldbound.v1.ErrorBudget
-	22, // 28: foldbound.v1.PlanGridResponse.verification:type_name -> foldbound.v1.Verification
-	16, // 29: foldbound.v1.PlanGridResponse.convention:type_name -> foldbound.v1.ConventionUsed
-	0,  // 30: foldbound.v1.BatchRequest.alias_sum:type_name -> foldbound.v1.AliasSumRequest
-	2,  // 31: foldbound.v1.BatchRequest.error_budget:type_name -> foldbound.v1.ErrorBudgetRequest
-	4,  // 32: foldbound.v1.BatchRequest.plan_grid:type_name -> foldbound.v1.PlanGridRequest
-	1,  // 33: foldbound.v1.BatchResponse.alias_sum:type_name -> foldbound.v1.AliasSumResponse
-	3,  // 34: foldbound.v1.BatchResponse.error_budget:type_name -> foldbound.v1.ErrorBudgetResponse
-	5,  // 35: foldbound.v1.BatchResponse.plan_grid:type_name -> foldbound.v1.PlanGridResponse
-	8,  // 36: foldbound.v1.BatchResponse.error:type_name -> foldbound.v1.ItemError
-	9,  // 37: foldbound.v1.ItemError.field_violations:type_name -> foldbound.v1.FieldViolation
-	0,  // 38: foldbound.v1.SamplingService.AliasSum:input_type -> foldbound.v1.AliasSumRequest
-	2,  // 39: foldbound.v1.SamplingService.ErrorBudget:input_type -> foldbound.v1.ErrorBudgetRequest
-	4,  // 40: foldbound.v1.SamplingService.PlanGrid:input_type -> foldbound.v1.PlanGridRequest
-	6,  // 41: foldbound.v1.SamplingService.Batch:input_type -> foldbound.v1.BatchRequest
-	1,  // 42: foldbound.v1.SamplingService.AliasSum:output_type -> foldbound.v1.AliasSumResponse
-	3,  // 43: foldbound.v1.SamplingService.ErrorBudget:output_type -> foldbound.v1.ErrorBudgetResponse
-	5,  // 44: foldbound.v1.SamplingService.PlanGrid:output_type -> foldbound.v1.PlanGridResponse
-	7,  // 45: foldbound.v1.SamplingService.Batch:output_type -> foldbound.v1.BatchResponse
-	42, // [42:46] is the sub-list for method output_type
-	38, // [38:42] is the sub-list for method input_type
-	38, // [38:38] is the sub-list for extension type_name
-	38, // [38:38] is the sub-list for extension extendee
-	0,  // [0:38] is the sub-list for field type_name
+	12, // 0: foldbound.v1.AliasSumRequest.family:type_name -> foldbound.v1.Family
+	13, // 1: foldbound.v1.AliasSumRequest.grids:type_name -> foldbound.v1.Grid
+	14, // 2: foldbound.v1.AliasSumRequest.convention:type_name -> foldbound.v1.Convention
+	15, // 3: foldbound.v1.AliasSumRequest.settings:type_name -> foldbound.v1.Settings
+	16, // 4: foldbound.v1.AliasSumResponse.sampled:type_name -> foldbound.v1.ComplexInterval
+	16, // 5: foldbound.v1.AliasSumResponse.exact:type_name -> foldbound.v1.ComplexInterval
+	16, // 6: foldbound.v1.AliasSumResponse.error:type_name -> foldbound.v1.ComplexInterval
+	16, // 7: foldbound.v1.AliasSumResponse.alias:type_name -> foldbound.v1.ComplexInterval
+	16, // 8: foldbound.v1.AliasSumResponse.truncation:type_name -> foldbound.v1.ComplexInterval
+	17, // 9: foldbound.v1.AliasSumResponse.method:type_name -> foldbound.v1.Method
+	18, // 10: foldbound.v1.AliasSumResponse.convention:type_name -> foldbound.v1.ConventionUsed
+	12, // 11: foldbound.v1.ErrorBudgetRequest.family:type_name -> foldbound.v1.Family
+	19, // 12: foldbound.v1.ErrorBudgetRequest.envelopes:type_name -> foldbound.v1.Envelopes
+	13, // 13: foldbound.v1.ErrorBudgetRequest.grids:type_name -> foldbound.v1.Grid
+	20, // 14: foldbound.v1.ErrorBudgetRequest.frequency:type_name -> foldbound.v1.Band
+	14, // 15: foldbound.v1.ErrorBudgetRequest.convention:type_name -> foldbound.v1.Convention
+	15, // 16: foldbound.v1.ErrorBudgetRequest.settings:type_name -> foldbound.v1.Settings
+	21, // 17: foldbound.v1.ErrorBudgetResponse.budget:type_name -> foldbound.v1.ErrorBudget
+	18, // 18: foldbound.v1.ErrorBudgetResponse.convention:type_name -> foldbound.v1.ConventionUsed
+	20, // 19: foldbound.v1.ErrorBudgetResponse.frequency:type_name -> foldbound.v1.Band
+	12, // 20: foldbound.v1.PlanGridRequest.family:type_name -> foldbound.v1.Family
+	19, // 21: foldbound.v1.PlanGridRequest.envelopes:type_name -> foldbound.v1.Envelopes
+	20, // 22: foldbound.v1.PlanGridRequest.frequency:type_name -> foldbound.v1.Band
+	22, // 23: foldbound.v1.PlanGridRequest.cost:type_name -> foldbound.v1.CostModel
+	14, // 24: foldbound.v1.PlanGridRequest.convention:type_name -> foldbound.v1.Convention
+	15, // 25: foldbound.v1.PlanGridRequest.settings:type_name -> foldbound.v1.Settings
+	23, // 26: foldbound.v1.PlanGridResponse.axes:type_name -> foldbound.v1.PlannedAxis
+	21, // 27: foldbound.v1.PlanGridResponse.budget:type_name -> foldbound.v1.ErrorBudget
+	24, // 28: foldbound.v1.PlanGridResponse.verification:type_name -> foldbound.v1.Verification
+	18, // 29: foldbound.v1.PlanGridResponse.convention:type_name -> foldbound.v1.ConventionUsed
+	25, // 30: foldbound.v1.PlanScanRequest.geometry:type_name -> foldbound.v1.ScanGeometry
+	26, // 31: foldbound.v1.PlanScanResponse.plan:type_name -> foldbound.v1.ScanPlan
+	0,  // 32: foldbound.v1.BatchRequest.alias_sum:type_name -> foldbound.v1.AliasSumRequest
+	2,  // 33: foldbound.v1.BatchRequest.error_budget:type_name -> foldbound.v1.ErrorBudgetRequest
+	4,  // 34: foldbound.v1.BatchRequest.plan_grid:type_name -> foldbound.v1.PlanGridRequest
+	6,  // 35: foldbound.v1.BatchRequest.plan_scan:type_name -> foldbound.v1.PlanScanRequest
+	1,  // 36: foldbound.v1.BatchResponse.alias_sum:type_name -> foldbound.v1.AliasSumResponse
+	3,  // 37: foldbound.v1.BatchResponse.error_budget:type_name -> foldbound.v1.ErrorBudgetResponse
+	5,  // 38: foldbound.v1.BatchResponse.plan_grid:type_name -> foldbound.v1.PlanGridResponse
+	7,  // 39: foldbound.v1.BatchResponse.plan_scan:type_name -> foldbound.v1.PlanScanResponse
+	10, // 40: foldbound.v1.BatchResponse.error:type_name -> foldbound.v1.ItemError
+	11, // 41: foldbound.v1.ItemError.field_violations:type_name -> foldbound.v1.FieldViolation
+	0,  // 42: foldbound.v1.SamplingService.AliasSum:input_type -> foldbound.v1.AliasSumRequest
+	2,  // 43: foldbound.v1.SamplingService.ErrorBudget:input_type -> foldbound.v1.ErrorBudgetRequest
+	4,  // 44: foldbound.v1.SamplingService.PlanGrid:input_type -> foldbound.v1.PlanGridRequest
+	6,  // 45: foldbound.v1.SamplingService.PlanScan:input_type -> foldbound.v1.PlanScanRequest
+	8,  // 46: foldbound.v1.SamplingService.Batch:input_type -> foldbound.v1.BatchRequest
+	1,  // 47: foldbound.v1.SamplingService.AliasSum:output_type -> foldbound.v1.AliasSumResponse
+	3,  // 48: foldbound.v1.SamplingService.ErrorBudget:output_type -> foldbound.v1.ErrorBudgetResponse
+	5,  // 49: foldbound.v1.SamplingService.PlanGrid:output_type -> foldbound.v1.PlanGridResponse
+	7,  // 50: foldbound.v1.SamplingService.PlanScan:output_type -> foldbound.v1.PlanScanResponse
+	9,  // 51: foldbound.v1.SamplingService.Batch:output_type -> foldbound.v1.BatchResponse
+	47, // [47:52] is the sub-list for method output_type
+	42, // [42:47] is the sub-list for method input_type
+	42, // [42:42] is the sub-list for extension type_name
+	42, // [42:42] is the sub-list for extension extendee
+	0,  // [0:42] is the sub-list for field type_name
 }
 
 func init() { file_foldbound_v1_service_proto_init() }
@@ -1315,6 +1515,7 @@ func file_foldbound_v1_service_proto_init() {
 	file_foldbound_v1_grid_proto_init()
 	file_foldbound_v1_numbers_proto_init()
 	file_foldbound_v1_plan_proto_init()
+	file_foldbound_v1_scan_proto_init()
 	file_foldbound_v1_service_proto_msgTypes[2].OneofWrappers = []any{
 		(*ErrorBudgetRequest_Family)(nil),
 		(*ErrorBudgetRequest_Envelopes)(nil),
@@ -1323,15 +1524,17 @@ func file_foldbound_v1_service_proto_init() {
 		(*PlanGridRequest_Family)(nil),
 		(*PlanGridRequest_Envelopes)(nil),
 	}
-	file_foldbound_v1_service_proto_msgTypes[6].OneofWrappers = []any{
+	file_foldbound_v1_service_proto_msgTypes[8].OneofWrappers = []any{
 		(*BatchRequest_AliasSum)(nil),
 		(*BatchRequest_ErrorBudget)(nil),
 		(*BatchRequest_PlanGrid)(nil),
+		(*BatchRequest_PlanScan)(nil),
 	}
-	file_foldbound_v1_service_proto_msgTypes[7].OneofWrappers = []any{
+	file_foldbound_v1_service_proto_msgTypes[9].OneofWrappers = []any{
 		(*BatchResponse_AliasSum)(nil),
 		(*BatchResponse_ErrorBudget)(nil),
 		(*BatchResponse_PlanGrid)(nil),
+		(*BatchResponse_PlanScan)(nil),
 		(*BatchResponse_Error)(nil),
 	}
 	type x struct{}
@@ -1340,7 +1543,7 @@ func file_foldbound_v1_service_proto_init() {
 			GoPackagePath: reflect.TypeOf(x{}).PkgPath(),
 			RawDescriptor: unsafe.Slice(unsafe.StringData(file_foldbound_v1_service_proto_rawDesc), len(file_foldbound_v1_service_proto_rawDesc)),
 			NumEnums:      0,
-			NumMessages:   10,
+			NumMessages:   12,
 			NumExtensions: 0,
 			NumServices:   1,
 		},

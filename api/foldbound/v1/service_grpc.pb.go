@@ -22,6 +22,7 @@ const (
 	SamplingService_AliasSum_FullMethodName    = "/foldbound.v1.SamplingService/AliasSum"
 	SamplingService_ErrorBudget_FullMethodName = "/foldbound.v1.SamplingService/ErrorBudget"
 	SamplingService_PlanGrid_FullMethodName    = "/foldbound.v1.SamplingService/PlanGrid"
+	SamplingService_PlanScan_FullMethodName    = "/foldbound.v1.SamplingService/PlanScan"
 	SamplingService_Batch_FullMethodName       = "/foldbound.v1.SamplingService/Batch"
 )
 
@@ -43,9 +44,9 @@ const (
 // stops when the call's context ends), UNIMPLEMENTED (a call this server
 // version cannot answer yet), INTERNAL (a bug; logged).
 //
-// Room is left for lattice calls (general lattices, lattice comparison)
-// and scan-geometry plans, which will be added as further rpcs and as
-// further request kinds of Batch.
+// Room is left for lattice calls (general lattices, lattice comparison),
+// which will be added as further rpcs and as further request kinds of
+// Batch.
 type SamplingServiceClient interface {
 	// AliasSum computes the sampled sum T of a family on a grid at one
 	// frequency, the exact transform F, and the error T - F split into its
@@ -60,6 +61,12 @@ type SamplingServiceClient interface {
 	// certified error budget is within a tolerance, re-verified before it is
 	// returned.
 	PlanGrid(ctx context.Context, in *PlanGridRequest, opts ...grpc.CallOption) (*PlanGridResponse, error)
+	// PlanScan returns the detector spacing, detector count and number of
+	// views that sample a parallel-beam or fan-beam tomography scan of an
+	// object of given radius and essential band limit, for the standard and
+	// the interlaced scheme. The answer is sampling mathematics, not a scan
+	// protocol, and says so in its caution.
+	PlanScan(ctx context.Context, in *PlanScanRequest, opts ...grpc.CallOption) (*PlanScanResponse, error)
 	// Batch answers many requests over one stream. Each item carries an id
 	// chosen by the caller; each response carries the same id and either a
 	// result or an error. Responses may arrive in any order. A stream that
@@ -109,6 +116,16 @@ func (c *samplingServiceClient) PlanGrid(ctx context.Context, in *PlanGridReques
 	return out, nil
 }
 
+func (c *samplingServiceClient) PlanScan(ctx context.Context, in *PlanScanRequest, opts ...grpc.CallOption) (*PlanScanResponse, error) {
+	cOpts := append([]grpc.CallOption{grpc.StaticMethod()}, opts...)
+	out := new(PlanScanResponse)
+	err := c.cc.Invoke(ctx, SamplingService_PlanScan_FullMethodName, in, out, cOpts...)
+	if err != nil {
+		return nil, err
+	}
+	return out, nil
+}
+
 func (c *samplingServiceClient) Batch(ctx context.Context, opts ...grpc.CallOption) (grpc.BidiStreamingClient[BatchRequest, BatchResponse], error) {
 	cOpts := append([]grpc.CallOption{grpc.StaticMethod()}, opts...)
 	stream, err := c.cc.NewStream(ctx, &SamplingService_ServiceDesc.Streams[0], SamplingService_Batch_FullMethodName, cOpts...)
@@ -140,9 +157,9 @@ type SamplingService_BatchClient = grpc.BidiStreamingClient[BatchRequest, BatchR
 // stops when the call's context ends), UNIMPLEMENTED (a call this server
 // version cannot answer yet), INTERNAL (a bug; logged).
 //
-// Room is left for lattice calls (general lattices, lattice comparison)
-// and scan-geometry plans, which will be added as further rpcs and as
-// further request kinds of Batch.
+// Room is left for lattice calls (general lattices, lattice comparison),
+// which will be added as further rpcs and as further request kinds of
+// Batch.
 type SamplingServiceServer interface {
 	// AliasSum computes the sampled sum T of a family on a grid at one
 	// frequency, the exact transform F, and the error T - F split into its
@@ -157,6 +174,12 @@ type SamplingServiceServer interface {
 	// certified error budget is within a tolerance, re-verified before it is
 	// returned.
 	PlanGrid(context.Context, *PlanGridRequest) (*PlanGridResponse, error)
+	// PlanScan returns the detector spacing, detector count and number of
+	// views that sample a parallel-beam or fan-beam tomography scan of an
+	// object of given radius and essential band limit, for the standard and
+	// the interlaced scheme. The answer is sampling mathematics, not a scan
+	// protocol, and says so in its caution.
+	PlanScan(context.Context, *PlanScanRequest) (*PlanScanResponse, error)
 	// Batch answers many requests over one stream. Each item carries an id
 	// chosen by the caller; each response carries the same id and either a
 	// result or an error. Responses may arrive in any order. A stream that
@@ -184,6 +207,9 @@ func (UnimplementedSamplingServiceServer) ErrorBudget(context.Context, *ErrorBud
 }
 func (UnimplementedSamplingServiceServer) PlanGrid(context.Context, *PlanGridRequest) (*PlanGridResponse, error) {
 	return nil, status.Error(codes.Unimplemented, "method PlanGrid not implemented")
+}
+func (UnimplementedSamplingServiceServer) PlanScan(context.Context, *PlanScanRequest) (*PlanScanResponse, error) {
+	return nil, status.Error(codes.Unimplemented, "method PlanScan not implemented")
 }
 func (UnimplementedSamplingServiceServer) Batch(grpc.BidiStreamingServer[BatchRequest, BatchResponse]) error {
 	return status.Error(codes.Unimplemented, "method Batch not implemented")
@@ -263,6 +289,24 @@ func _SamplingService_PlanGrid_Handler(srv interface{}, ctx context.Context, dec
 	return interceptor(ctx, in, info, handler)
 }
 
+func _SamplingService_PlanScan_Handler(srv interface{}, ctx context.Context, dec func(interface{}) error, interceptor grpc.UnaryServerInterceptor) (interface{}, error) {
+	in := new(PlanScanRequest)
+	if err := dec(in); err != nil {
+		return nil, err
+	}
+	if interceptor == nil {
+		return srv.(SamplingServiceServer).PlanScan(ctx, in)
+	}
+	info := &grpc.UnaryServerInfo{
+		Server:     srv,
+		FullMethod: SamplingService_PlanScan_FullMethodName,
+	}
+	handler := func(ctx context.Context, req interface{}) (interface{}, error) {
+		return srv.(SamplingServiceServer).PlanScan(ctx, req.(*PlanScanRequest))
+	}
+	return interceptor(ctx, in, info, handler)
+}
+
 func _SamplingService_Batch_Handler(srv interface{}, stream grpc.ServerStream) error {
 	return srv.(SamplingServiceServer).Batch(&grpc.GenericServerStream[BatchRequest, BatchResponse]{ServerStream: stream})
 }
@@ -288,6 +332,10 @@ var SamplingService_ServiceDesc = grpc.ServiceDesc{
 		{
 			MethodName: "PlanGrid",
 			Handler:    _SamplingService_PlanGrid_Handler,
+		},
+		{
+			MethodName: "PlanScan",
+			Handler:    _SamplingService_PlanScan_Handler,
 		},
 	},
 	Streams: []grpc.StreamDesc{
