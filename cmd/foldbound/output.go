@@ -90,6 +90,9 @@ func fmtConvention(c *pb.ConventionUsed) string {
 }
 
 func sideName(s pb.Side) string {
+	if s == pb.Side_SIDE_UNSPECIFIED {
+		return "per-axis (mixed)"
+	}
 	return strings.ToLower(strings.TrimPrefix(s.String(), "SIDE_"))
 }
 

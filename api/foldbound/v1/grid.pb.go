@@ -281,9 +281,12 @@ func (x *Settings) GetSide() Side {
 // Method says how a result was computed.
 type Method struct {
 	state protoimpl.MessageState `protogen:"open.v1"`
-	// Side of the Poisson formula that gave the alias part.
+	// Side of the Poisson formula that gave the alias part; in an
+	// n-dimensional result SIDE_UNSPECIFIED means the axes used different
+	// sides.
 	Side Side `protobuf:"varint,1,opt,name=side,proto3,enum=foldbound.v1.Side" json:"side,omitempty"`
-	// Terms summed for the alias part (aliased copies or samples).
+	// Terms summed for the alias part (aliased copies or samples), summed
+	// over the axes of an n-dimensional result.
 	AliasTerms int64 `protobuf:"varint,2,opt,name=alias_terms,json=aliasTerms,proto3" json:"alias_terms,omitempty"`
 	// Omitted samples summed explicitly for the truncation part.
 	TruncationTerms int64 `protobuf:"varint,3,opt,name=truncation_terms,json=truncationTerms,proto3" json:"truncation_terms,omitempty"`
