@@ -258,3 +258,25 @@ func TestItemErrKeepsFieldViolations(t *testing.T) {
 		t.Error("ItemErr of a response without error is not nil")
 	}
 }
+
+// TestBatchResumesPastTheStreamItemCap serves with a cap of 100 items per
+// stream: Batch must carry 250 items over several streams, each answered
+// once.
+func TestBatchResumesPastTheStreamItemCap(t *testing.T) {
+	addr, _ := startServer(t, server.Config{Limits: server.Limits{MaxStreamItems: 100}})
+	c := newClient(t, addr)
+	items := gaussianItems(250)
+	calls := 0
+	res, err := c.Batch(context.Background(), items, client.WithProgress(func(int, int) { calls++ }))
+	if err != nil {
+		t.Fatalf("Batch: %v", err)
+	}
+	if calls != len(items) {
+		t.Errorf("progress called %d times, want %d", calls, len(items))
+	}
+	for i, r := range res {
+		if want := "item-" + strconv.Itoa(i); r.GetId() != want || client.ItemErr(r) != nil {
+			t.Fatalf("res[%d] = %v, want id %q without error", i, r, want)
+		}
+	}
+}
