@@ -17,8 +17,9 @@ import (
 )
 
 // Item wraps a request as a Batch item with the given id. req must be an
-// *AliasSumRequest, *ErrorBudgetRequest, *PlanGridRequest or
-// *PlanScanRequest; Item panics
+// *AliasSumRequest, *ErrorBudgetRequest, *PlanGridRequest,
+// *PlanScanRequest, *LatticeAliasSumRequest or *CompareLatticesRequest;
+// Item panics
 // on any other type (a programming error).
 func Item(id string, req proto.Message) *pb.BatchRequest {
 	b := &pb.BatchRequest{Id: id}
@@ -31,6 +32,10 @@ func Item(id string, req proto.Message) *pb.BatchRequest {
 		b.Request = &pb.BatchRequest_PlanGrid{PlanGrid: r}
 	case *pb.PlanScanRequest:
 		b.Request = &pb.BatchRequest_PlanScan{PlanScan: r}
+	case *pb.LatticeAliasSumRequest:
+		b.Request = &pb.BatchRequest_LatticeAliasSum{LatticeAliasSum: r}
+	case *pb.CompareLatticesRequest:
+		b.Request = &pb.BatchRequest_CompareLattices{CompareLattices: r}
 	default:
 		panic(fmt.Sprintf("client.Item: %T is not a SamplingService request", req))
 	}

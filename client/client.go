@@ -174,6 +174,22 @@ func (c *Client) PlanScan(ctx context.Context, req *pb.PlanScanRequest, opts ...
 	return c.rpc.PlanScan(ctx, req, opts...)
 }
 
+// LatticeAliasSum computes the sampled sum of a family on a lattice, the
+// exact transform and the alias sum as enclosures.
+func (c *Client) LatticeAliasSum(ctx context.Context, req *pb.LatticeAliasSumRequest, opts ...grpc.CallOption) (*pb.LatticeAliasSumResponse, error) {
+	ctx, cancel := withDeadline(ctx, c.o.timeout)
+	defer cancel()
+	return c.rpc.LatticeAliasSum(ctx, req, opts...)
+}
+
+// CompareLattices ranks sampling lattices for a spectral envelope and a
+// tolerance.
+func (c *Client) CompareLattices(ctx context.Context, req *pb.CompareLatticesRequest, opts ...grpc.CallOption) (*pb.CompareLatticesResponse, error) {
+	ctx, cancel := withDeadline(ctx, c.o.timeout)
+	defer cancel()
+	return c.rpc.CompareLattices(ctx, req, opts...)
+}
+
 // Check asks the standard health service about service ("" for the
 // server as a whole).
 func (c *Client) Check(ctx context.Context, service string) (healthpb.HealthCheckResponse_ServingStatus, error) {

@@ -138,11 +138,21 @@ func (s *service) answer(ctx context.Context, req *pb.BatchRequest) (resp *pb.Ba
 			if res, err = s.planScan(ctx, r.PlanScan); err == nil {
 				resp.Result = &pb.BatchResponse_PlanScan{PlanScan: res}
 			}
+		case *pb.BatchRequest_LatticeAliasSum:
+			var res *pb.LatticeAliasSumResponse
+			if res, err = s.latticeAliasSum(ctx, r.LatticeAliasSum); err == nil {
+				resp.Result = &pb.BatchResponse_LatticeAliasSum{LatticeAliasSum: res}
+			}
+		case *pb.BatchRequest_CompareLattices:
+			var res *pb.CompareLatticesResponse
+			if res, err = s.compareLattices(ctx, r.CompareLattices); err == nil {
+				resp.Result = &pb.BatchResponse_CompareLattices{CompareLattices: res}
+			}
 		default:
 			if len(req.ProtoReflect().GetUnknown()) > 0 {
 				err = &unimplementedError{field: "request", what: "request kind not known to this server (is the client newer?)"}
 			} else {
-				err = &requestError{code: codes.InvalidArgument, violations: []violation{{"request", "one of alias_sum, error_budget, plan_grid or plan_scan is required"}}}
+				err = &requestError{code: codes.InvalidArgument, violations: []violation{{"request", "one of alias_sum, error_budget, plan_grid, plan_scan, lattice_alias_sum or compare_lattices is required"}}}
 			}
 		}
 	}

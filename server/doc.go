@@ -12,6 +12,7 @@
 //	validate.go     field rules; violations name the field path
 //	convert.go      wire <-> engine conversion, Fourier conventions
 //	service.go      the unary calls
+//	lattice.go      the lattice calls: rules, conversion, handlers
 //	batch.go        the Batch stream
 //	status.go       errors -> gRPC status codes
 //

@@ -56,6 +56,24 @@ func (s *service) PlanScan(ctx context.Context, req *pb.PlanScanRequest) (*pb.Pl
 	return res, nil
 }
 
+// LatticeAliasSum implements SamplingService.LatticeAliasSum.
+func (s *service) LatticeAliasSum(ctx context.Context, req *pb.LatticeAliasSumRequest) (*pb.LatticeAliasSumResponse, error) {
+	res, err := s.latticeAliasSum(ctx, req)
+	if err != nil {
+		return nil, toStatus(err).Err()
+	}
+	return res, nil
+}
+
+// CompareLattices implements SamplingService.CompareLattices.
+func (s *service) CompareLattices(ctx context.Context, req *pb.CompareLatticesRequest) (*pb.CompareLatticesResponse, error) {
+	res, err := s.compareLattices(ctx, req)
+	if err != nil {
+		return nil, toStatus(err).Err()
+	}
+	return res, nil
+}
+
 // aliasSum answers an AliasSumRequest; errors are mapped by the caller.
 func (s *service) aliasSum(ctx context.Context, req *pb.AliasSumRequest) (*pb.AliasSumResponse, error) {
 	dim, err := s.lim.checkAliasSum(req)

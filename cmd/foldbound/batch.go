@@ -113,6 +113,13 @@ func summary(r *pb.BatchResponse) string {
 		p := x.PlanScan.GetPlan()
 		return fmt.Sprintf("scan plan: standard %d, interlaced %d line integrals (sampling mathematics, not a scan protocol)",
 			p.GetStandard().GetSamples(), p.GetInterlaced().GetSamples())
+	case *pb.BatchResponse_LatticeAliasSum:
+		a := x.LatticeAliasSum.GetAlias()
+		return fmt.Sprintf("lattice sum of %s on %s: alias sum = %s + i(%s)", x.LatticeAliasSum.GetFamily(),
+			x.LatticeAliasSum.GetLattice().GetName(), fmtInterval(a.GetRe()), fmtInterval(a.GetIm()))
+	case *pb.BatchResponse_CompareLattices:
+		best := x.CompareLattices.GetPlans()[0]
+		return fmt.Sprintf("lattice comparison: %s saves %.2f%% against the rectangular grid", best.GetLattice().GetName(), 100*best.GetSaving())
 	case *pb.BatchResponse_PlanGrid:
 		p := x.PlanGrid
 		return fmt.Sprintf("plan: %d samples, total %s", p.GetTotalSamples(), fmtBound(p.GetBudget().GetTotal()))

@@ -9,6 +9,7 @@
 //	foldbound budget …              certified error budget of a grid
 //	foldbound plan   …              cheapest certified grid
 //	foldbound scan   …              tomography scan sampling (mathematics only)
+//	foldbound lattice sum|compare   alias sums on lattices, lattice comparison
 //	foldbound batch  --request F    many requests over one stream
 //	foldbound demo                  a worked scenario, end to end
 package main

@@ -180,6 +180,53 @@ func TestScanCommand(t *testing.T) {
 	}
 }
 
+func TestLatticeCommands(t *testing.T) {
+	out, errOut, code := runCLI(t, "lattice", "sum", "--family", "radial-gaussian(dim=2, sigma=1)", "--lattice", "hexagonal", "--scale", "1.6")
+	if code != 0 {
+		t.Fatalf("lattice sum: exit %d: %s", code, errOut)
+	}
+	for _, want := range []string{"lattice sum T", "alias sum T - F", "hexagonal, 2-D"} {
+		if !strings.Contains(out, want) {
+			t.Errorf("lattice sum output lacks %q:\n%s", want, out)
+		}
+	}
+	out, errOut, code = runCLI(t, "lattice", "sum", "--family", "radial-gaussian(dim=2, sigma=1)", "--generator", "1,0; 0,1", "--json")
+	if code != 0 {
+		t.Fatalf("lattice sum --json: exit %d: %s", code, errOut)
+	}
+	var sum pb.LatticeAliasSumResponse
+	if err := protojson.Unmarshal([]byte(out), &sum); err != nil {
+		t.Fatal(err)
+	}
+	// On Z² the sum of exp(-|x|²/2) is the square of the 1-D sum (Fubini),
+	// whose alias error is 2√(2π) Σ_{l≥1} e^{-2π²l²} (DLMF §20.7(viii), from
+	// memory).
+	oneD := sqrt2Pi * (1 + 2*math.Exp(-2*math.Pi*math.Pi))
+	if re := sum.GetSampled().GetRe(); math.Abs((re.GetLo()+re.GetHi())/2-oneD*oneD) > 1e-13 {
+		t.Errorf("sampled = %v, want %.17g", re, oneD*oneD)
+	}
+
+	args := []string{"lattice", "compare", "--dim", "2", "--spectral", "compact(width=3.141592653589793)", "--whole-band", "--tol", "1e-9"}
+	out, errOut, code = runCLI(t, args...)
+	if code != 0 {
+		t.Fatalf("lattice compare: exit %d: %s", code, errOut)
+	}
+	if !strings.Contains(out, "hexagonal") || !strings.Contains(out, "13.40%") {
+		t.Errorf("lattice compare output lacks the hexagonal saving of 13.40%% (Petersen & Middleton 1962, from memory):\n%s", out)
+	}
+	out, errOut, code = runCLI(t, append(args, "--json")...)
+	if code != 0 {
+		t.Fatalf("lattice compare --json: exit %d: %s", code, errOut)
+	}
+	var cmp pb.CompareLatticesResponse
+	if err := protojson.Unmarshal([]byte(out), &cmp); err != nil {
+		t.Fatal(err)
+	}
+	if got := cmp.GetPlans()[0].GetSaving(); math.Abs(got-(1-math.Sqrt(3)/2)) > 0.005 {
+		t.Errorf("best saving = %g, want 1 - √3/2", got)
+	}
+}
+
 func TestBadInputFromTheCommandLine(t *testing.T) {
 	tests := []struct {
 		name string

@@ -882,14 +882,408 @@ func (x *PlanScanResponse) GetPlan() *ScanPlan {
 	return nil
 }
 
+// LatticeAliasSumRequest asks for the sampled sum of a family on the
+// shifted lattice L + s at one frequency:
+//
+//	T = |det W| sum_k f(Wk + s) exp(-i xi.(Wk + s)),  F(xi),  T - F.
+type LatticeAliasSumRequest struct {
+	state protoimpl.MessageState `protogen:"open.v1"`
+	// The function; its dimension must equal the lattice's. Required.
+	Family *Family `protobuf:"bytes,1,opt,name=family,proto3" json:"family,omitempty"`
+	// The sampling lattice. Required.
+	Lattice *Lattice `protobuf:"bytes,2,opt,name=lattice,proto3" json:"lattice,omitempty"`
+	// Shift s per axis (finite), length units; empty for 0.
+	Shift []float64 `protobuf:"fixed64,3,rep,packed,name=shift,proto3" json:"shift,omitempty"`
+	// Frequency per axis in the request's convention; empty for 0.
+	Xi []float64 `protobuf:"fixed64,4,rep,packed,name=xi,proto3" json:"xi,omitempty"`
+	// Fourier convention of `xi` and of the results. Default angular.
+	Convention Convention `protobuf:"varint,5,opt,name=convention,proto3,enum=foldbound.v1.Convention" json:"convention,omitempty"`
+	// Numerical settings; max_terms bounds the enumeration nodes visited.
+	Settings      *Settings `protobuf:"bytes,6,opt,name=settings,proto3" json:"settings,omitempty"`
+	unknownFields protoimpl.UnknownFields
+	sizeCache     protoimpl.SizeCache
+}
+
+func (x *LatticeAliasSumRequest) Reset() {
+	*x = LatticeAliasSumRequest{}
+	mi := &file_foldbound_v1_service_proto_msgTypes[8]
+	ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
+	ms.StoreMessageInfo(mi)
+}
+
+func (x *LatticeAliasSumRequest) String() string {
+	return protoimpl.X.MessageStringOf(x)
+}
+
+func (*LatticeAliasSumRequest) ProtoMessage() {}
+
+func (x *LatticeAliasSumRequest) ProtoReflect() protoreflect.Message {
+	mi := &file_foldbound_v1_service_proto_msgTypes[8]
+	if x != nil {
+		ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
+		if ms.LoadMessageInfo() == nil {
+			ms.StoreMessageInfo(mi)
+		}
+		return ms
+	}
+	return mi.MessageOf(x)
+}
+
+// Deprecated: Use LatticeAliasSumRequest.ProtoReflect.Descriptor instead.
+func (*LatticeAliasSumRequest) Descriptor() ([]byte, []int) {
+	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{8}
+}
+
+func (x *LatticeAliasSumRequest) GetFamily() *Family {
+	if x != nil {
+		return x.Family
+	}
+	return nil
+}
+
+func (x *LatticeAliasSumRequest) GetLattice() *Lattice {
+	if x != nil {
+		return x.Lattice
+	}
+	return nil
+}
+
+func (x *LatticeAliasSumRequest) GetShift() []float64 {
+	if x != nil {
+		return x.Shift
+	}
+	return nil
+}
+
+func (x *LatticeAliasSumRequest) GetXi() []float64 {
+	if x != nil {
+		return x.Xi
+	}
+	return nil
+}
+
+func (x *LatticeAliasSumRequest) GetConvention() Convention {
+	if x != nil {
+		return x.Convention
+	}
+	return Convention_CONVENTION_UNSPECIFIED
+}
+
+func (x *LatticeAliasSumRequest) GetSettings() *Settings {
+	if x != nil {
+		return x.Settings
+	}
+	return nil
+}
+
+// LatticeAliasSumResponse holds T, F and the alias sum T - F (an infinite
+// lattice has no truncation) as certified enclosures.
+type LatticeAliasSumResponse struct {
+	state protoimpl.MessageState `protogen:"open.v1"`
+	// T, the lattice sum.
+	Sampled *ComplexInterval `protobuf:"bytes,1,opt,name=sampled,proto3" json:"sampled,omitempty"`
+	// F(xi), the exact transform.
+	Exact *ComplexInterval `protobuf:"bytes,2,opt,name=exact,proto3" json:"exact,omitempty"`
+	// T - F, the alias sum over the nonzero dual-lattice points.
+	Alias *ComplexInterval `protobuf:"bytes,3,opt,name=alias,proto3" json:"alias,omitempty"`
+	// How it was computed.
+	Method *LatticeMethod `protobuf:"bytes,4,opt,name=method,proto3" json:"method,omitempty"`
+	// The convention the numbers are in.
+	Convention *ConventionUsed `protobuf:"bytes,5,opt,name=convention,proto3" json:"convention,omitempty"`
+	// The family as the engine understood it.
+	Family string `protobuf:"bytes,6,opt,name=family,proto3" json:"family,omitempty"`
+	// The lattice as used.
+	Lattice *LatticeInfo `protobuf:"bytes,7,opt,name=lattice,proto3" json:"lattice,omitempty"`
+	// The angular frequency per axis used (see AliasSumResponse).
+	XiAngular     []float64 `protobuf:"fixed64,8,rep,packed,name=xi_angular,json=xiAngular,proto3" json:"xi_angular,omitempty"`
+	unknownFields protoimpl.UnknownFields
+	sizeCache     protoimpl.SizeCache
+}
+
+func (x *LatticeAliasSumResponse) Reset() {
+	*x = LatticeAliasSumResponse{}
+	mi := &file_foldbound_v1_service_proto_msgTypes[9]
+	ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
+	ms.StoreMessageInfo(mi)
+}
+
+func (x *LatticeAliasSumResponse) String() string {
+	return protoimpl.X.MessageStringOf(x)
+}
+
+func (*LatticeAliasSumResponse) ProtoMessage() {}
+
+func (x *LatticeAliasSumResponse) ProtoReflect() protoreflect.Message {
+	mi := &file_foldbound_v1_service_proto_msgTypes[9]
+	if x != nil {
+		ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
+		if ms.LoadMessageInfo() == nil {
+			ms.StoreMessageInfo(mi)
+		}
+		return ms
+	}
+	return mi.MessageOf(x)
+}
+
+// Deprecated: Use LatticeAliasSumResponse.ProtoReflect.Descriptor instead.
+func (*LatticeAliasSumResponse) Descriptor() ([]byte, []int) {
+	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{9}
+}
+
+func (x *LatticeAliasSumResponse) GetSampled() *ComplexInterval {
+	if x != nil {
+		return x.Sampled
+	}
+	return nil
+}
+
+func (x *LatticeAliasSumResponse) GetExact() *ComplexInterval {
+	if x != nil {
+		return x.Exact
+	}
+	return nil
+}
+
+func (x *LatticeAliasSumResponse) GetAlias() *ComplexInterval {
+	if x != nil {
+		return x.Alias
+	}
+	return nil
+}
+
+func (x *LatticeAliasSumResponse) GetMethod() *LatticeMethod {
+	if x != nil {
+		return x.Method
+	}
+	return nil
+}
+
+func (x *LatticeAliasSumResponse) GetConvention() *ConventionUsed {
+	if x != nil {
+		return x.Convention
+	}
+	return nil
+}
+
+func (x *LatticeAliasSumResponse) GetFamily() string {
+	if x != nil {
+		return x.Family
+	}
+	return ""
+}
+
+func (x *LatticeAliasSumResponse) GetLattice() *LatticeInfo {
+	if x != nil {
+		return x.Lattice
+	}
+	return nil
+}
+
+func (x *LatticeAliasSumResponse) GetXiAngular() []float64 {
+	if x != nil {
+		return x.XiAngular
+	}
+	return nil
+}
+
+// CompareLatticesRequest gives the target every candidate must meet: for
+// every frequency |xi| <= band and every shift, the alias sum of any
+// function with |F(xi)| <= spectral(|xi|) stays within tol.
+type CompareLatticesRequest struct {
+	state protoimpl.MessageState `protogen:"open.v1"`
+	// Dimension n, 1 to 8.
+	Dim int32 `protobuf:"varint,1,opt,name=dim,proto3" json:"dim,omitempty"`
+	// Isotropic envelope of |F| as a function of |xi| (angular convention,
+	// terms centred at 0; a centre c is folded into the plateau). At least
+	// one term with a positive amplitude.
+	Spectral []*EnvelopeTerm `protobuf:"bytes,2,rep,name=spectral,proto3" json:"spectral,omitempty"`
+	// Radius of the frequencies covered, in the convention's frequency
+	// unit (finite, >= 0); 0 for the integral (xi = 0).
+	Band float64 `protobuf:"fixed64,3,opt,name=band,proto3" json:"band,omitempty"`
+	// If true, cover the whole band of a band-limited envelope (every term
+	// DECAY_COMPACT; `band` must be 0): the reconstruction target.
+	WholeBand bool `protobuf:"varint,4,opt,name=whole_band,json=wholeBand,proto3" json:"whole_band,omitempty"`
+	// Tolerance for the alias bound, in the units of the results of the
+	// convention; a normal float64 > 0.
+	Tol float64 `protobuf:"fixed64,5,opt,name=tol,proto3" json:"tol,omitempty"`
+	// Extra candidate lattices of dimension `dim` (the built-in ones are
+	// always compared); their scales are ignored.
+	Candidates []*Lattice `protobuf:"bytes,6,rep,name=candidates,proto3" json:"candidates,omitempty"`
+	// Fourier convention. Default angular.
+	Convention Convention `protobuf:"varint,7,opt,name=convention,proto3,enum=foldbound.v1.Convention" json:"convention,omitempty"`
+	// Numerical settings.
+	Settings      *Settings `protobuf:"bytes,8,opt,name=settings,proto3" json:"settings,omitempty"`
+	unknownFields protoimpl.UnknownFields
+	sizeCache     protoimpl.SizeCache
+}
+
+func (x *CompareLatticesRequest) Reset() {
+	*x = CompareLatticesRequest{}
+	mi := &file_foldbound_v1_service_proto_msgTypes[10]
+	ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
+	ms.StoreMessageInfo(mi)
+}
+
+func (x *CompareLatticesRequest) String() string {
+	return protoimpl.X.MessageStringOf(x)
+}
+
+func (*CompareLatticesRequest) ProtoMessage() {}
+
+func (x *CompareLatticesRequest) ProtoReflect() protoreflect.Message {
+	mi := &file_foldbound_v1_service_proto_msgTypes[10]
+	if x != nil {
+		ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
+		if ms.LoadMessageInfo() == nil {
+			ms.StoreMessageInfo(mi)
+		}
+		return ms
+	}
+	return mi.MessageOf(x)
+}
+
+// Deprecated: Use CompareLatticesRequest.ProtoReflect.Descriptor instead.
+func (*CompareLatticesRequest) Descriptor() ([]byte, []int) {
+	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{10}
+}
+
+func (x *CompareLatticesRequest) GetDim() int32 {
+	if x != nil {
+		return x.Dim
+	}
+	return 0
+}
+
+func (x *CompareLatticesRequest) GetSpectral() []*EnvelopeTerm {
+	if x != nil {
+		return x.Spectral
+	}
+	return nil
+}
+
+func (x *CompareLatticesRequest) GetBand() float64 {
+	if x != nil {
+		return x.Band
+	}
+	return 0
+}
+
+func (x *CompareLatticesRequest) GetWholeBand() bool {
+	if x != nil {
+		return x.WholeBand
+	}
+	return false
+}
+
+func (x *CompareLatticesRequest) GetTol() float64 {
+	if x != nil {
+		return x.Tol
+	}
+	return 0
+}
+
+func (x *CompareLatticesRequest) GetCandidates() []*Lattice {
+	if x != nil {
+		return x.Candidates
+	}
+	return nil
+}
+
+func (x *CompareLatticesRequest) GetConvention() Convention {
+	if x != nil {
+		return x.Convention
+	}
+	return Convention_CONVENTION_UNSPECIFIED
+}
+
+func (x *CompareLatticesRequest) GetSettings() *Settings {
+	if x != nil {
+		return x.Settings
+	}
+	return nil
+}
+
+// CompareLatticesResponse ranks the candidates.
+type CompareLatticesResponse struct {
+	state protoimpl.MessageState `protogen:"open.v1"`
+	// The plan of the integer lattice Z^n, the reference of the savings.
+	Reference *LatticePlan `protobuf:"bytes,1,opt,name=reference,proto3" json:"reference,omitempty"`
+	// Every candidate's plan, fewest samples per unit volume first.
+	Plans []*LatticePlan `protobuf:"bytes,2,rep,name=plans,proto3" json:"plans,omitempty"`
+	// The band radius covered, in the convention's frequency unit.
+	Band float64 `protobuf:"fixed64,3,opt,name=band,proto3" json:"band,omitempty"`
+	// The convention the numbers are in.
+	Convention    *ConventionUsed `protobuf:"bytes,4,opt,name=convention,proto3" json:"convention,omitempty"`
+	unknownFields protoimpl.UnknownFields
+	sizeCache     protoimpl.SizeCache
+}
+
+func (x *CompareLatticesResponse) Reset() {
+	*x = CompareLatticesResponse{}
+	mi := &file_foldbound_v1_service_proto_msgTypes[11]
+	ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
+	ms.StoreMessageInfo(mi)
+}
+
+func (x *CompareLatticesResponse) String() string {
+	return protoimpl.X.MessageStringOf(x)
+}
+
+func (*CompareLatticesResponse) ProtoMessage() {}
+
+func (x *CompareLatticesResponse) ProtoReflect() protoreflect.Message {
+	mi := &file_foldbound_v1_service_proto_msgTypes[11]
+	if x != nil {
+		ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
+		if ms.LoadMessageInfo() == nil {
+			ms.StoreMessageInfo(mi)
+		}
+		return ms
+	}
+	return mi.MessageOf(x)
+}
+
+// Deprecated: Use CompareLatticesResponse.ProtoReflect.Descriptor instead.
+func (*CompareLatticesResponse) Descriptor() ([]byte, []int) {
+	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{11}
+}
+
+func (x *CompareLatticesResponse) GetReference() *LatticePlan {
+	if x != nil {
+		return x.Reference
+	}
+	return nil
+}
+
+func (x *CompareLatticesResponse) GetPlans() []*LatticePlan {
+	if x != nil {
+		return x.Plans
+	}
+	return nil
+}
+
+func (x *CompareLatticesResponse) GetBand() float64 {
+	if x != nil {
+		return x.Band
+	}
+	return 0
+}
+
+func (x *CompareLatticesResponse) GetConvention() *ConventionUsed {
+	if x != nil {
+		return x.Convention
+	}
+	return nil
+}
+
 // BatchRequest is one item of a Batch stream.
 type BatchRequest struct {
 	state protoimpl.MessageState `protogen:"open.v1"`
 	// Caller-chosen id, 1 to 128 bytes, echoed in the response. Ids should
 	// be unique within a batch; the server does not check.
 	Id string `protobuf:"bytes,1,opt,name=id,proto3" json:"id,omitempty"`
-	// The question. Exactly one must be set. Field numbers 6-14 are kept
-	// for lattice requests.
+	// The question. Exactly one must be set. Field numbers 8-14 are kept
+	// for further request kinds.
 	//
 	// Types that are valid to be assigned to Request:
 	//
@@ -897,6 +1291,8 @@ type BatchRequest struct {
 	//	*BatchRequest_ErrorBudget
 	//	*BatchRequest_PlanGrid
 	//	*BatchRequest_PlanScan
+	//	*BatchRequest_LatticeAliasSum
+	//	*BatchRequest_CompareLattices
 	Request       isBatchRequest_Request `protobuf_oneof:"request"`
 	unknownFields protoimpl.UnknownFields
 	sizeCache     protoimpl.SizeCache
@@ -904,7 +1300,7 @@ type BatchRequest struct {
 
 func (x *BatchRequest) Reset() {
 	*x = BatchRequest{}
-	mi := &file_foldbound_v1_service_proto_msgTypes[8]
+	mi := &file_foldbound_v1_service_proto_msgTypes[12]
 	ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
 	ms.StoreMessageInfo(mi)
 }
@@ -916,7 +1312,7 @@ func (x *BatchRequest) String() string {
 func (*BatchRequest) ProtoMessage() {}
 
 func (x *BatchRequest) ProtoReflect() protoreflect.Message {
-	mi := &file_foldbound_v1_service_proto_msgTypes[8]
+	mi := &file_foldbound_v1_service_proto_msgTypes[12]
 	if x != nil {
 		ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
 		if ms.LoadMessageInfo() == nil {
@@ -929,7 +1325,7 @@ func (x *BatchRequest) ProtoReflect() protoreflect.Message {
 
 // Deprecated: Use BatchRequest.ProtoReflect.Descriptor instead.
 func (*BatchRequest) Descriptor() ([]byte, []int) {
-	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{8}
+	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{12}
 }
 
 func (x *BatchRequest) GetId() string {
@@ -982,6 +1378,24 @@ func (x *BatchRequest) GetPlanScan() *PlanScanRequest {
 	return nil
 }
 
+func (x *BatchRequest) GetLatticeAliasSum() *LatticeAliasSumRequest {
+	if x != nil {
+		if x, ok := x.Request.(*BatchRequest_LatticeAliasSum); ok {
+			return x.LatticeAliasSum
+		}
+	}
+	return nil
+}
+
+func (x *BatchRequest) GetCompareLattices() *CompareLatticesRequest {
+	if x != nil {
+		if x, ok := x.Request.(*BatchRequest_CompareLattices); ok {
+			return x.CompareLattices
+		}
+	}
+	return nil
+}
+
 type isBatchRequest_Request interface {
 	isBatchRequest_Request()
 }
@@ -1006,6 +1420,16 @@ type BatchRequest_PlanScan struct {
 	PlanScan *PlanScanRequest `protobuf:"bytes,5,opt,name=plan_scan,json=planScan,proto3,oneof"`
 }
 
+type BatchRequest_LatticeAliasSum struct {
+	// A lattice alias sum.
+	LatticeAliasSum *LatticeAliasSumRequest `protobuf:"bytes,6,opt,name=lattice_alias_sum,json=latticeAliasSum,proto3,oneof"`
+}
+
+type BatchRequest_CompareLattices struct {
+	// A lattice comparison.
+	CompareLattices *CompareLatticesRequest `protobuf:"bytes,7,opt,name=compare_lattices,json=compareLattices,proto3,oneof"`
+}
+
 func (*BatchRequest_AliasSum) isBatchRequest_Request() {}
 
 func (*BatchRequest_ErrorBudget) isBatchRequest_Request() {}
@@ -1013,6 +1437,10 @@ func (*BatchRequest_ErrorBudget) isBatchRequest_Request() {}
 func (*BatchRequest_PlanGrid) isBatchRequest_Request() {}
 
 func (*BatchRequest_PlanScan) isBatchRequest_Request() {}
+
+func (*BatchRequest_LatticeAliasSum) isBatchRequest_Request() {}
+
+func (*BatchRequest_CompareLattices) isBatchRequest_Request() {}
 
 // BatchResponse answers one BatchRequest.
 type BatchResponse struct {
@@ -1027,6 +1455,8 @@ type BatchResponse struct {
 	//	*BatchResponse_ErrorBudget
 	//	*BatchResponse_PlanGrid
 	//	*BatchResponse_PlanScan
+	//	*BatchResponse_LatticeAliasSum
+	//	*BatchResponse_CompareLattices
 	//	*BatchResponse_Error
 	Result        isBatchResponse_Result `protobuf_oneof:"result"`
 	unknownFields protoimpl.UnknownFields
@@ -1035,7 +1465,7 @@ type BatchResponse struct {
 
 func (x *BatchResponse) Reset() {
 	*x = BatchResponse{}
-	mi := &file_foldbound_v1_service_proto_msgTypes[9]
+	mi := &file_foldbound_v1_service_proto_msgTypes[13]
 	ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
 	ms.StoreMessageInfo(mi)
 }
@@ -1047,7 +1477,7 @@ func (x *BatchResponse) String() string {
 func (*BatchResponse) ProtoMessage() {}
 
 func (x *BatchResponse) ProtoReflect() protoreflect.Message {
-	mi := &file_foldbound_v1_service_proto_msgTypes[9]
+	mi := &file_foldbound_v1_service_proto_msgTypes[13]
 	if x != nil {
 		ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
 		if ms.LoadMessageInfo() == nil {
@@ -1060,7 +1490,7 @@ func (x *BatchResponse) ProtoReflect() protoreflect.Message {
 
 // Deprecated: Use BatchResponse.ProtoReflect.Descriptor instead.
 func (*BatchResponse) Descriptor() ([]byte, []int) {
-	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{9}
+	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{13}
 }
 
 func (x *BatchResponse) GetId() string {
@@ -1113,6 +1543,24 @@ func (x *BatchResponse) GetPlanScan() *PlanScanResponse {
 	return nil
 }
 
+func (x *BatchResponse) GetLatticeAliasSum() *LatticeAliasSumResponse {
+	if x != nil {
+		if x, ok := x.Result.(*BatchResponse_LatticeAliasSum); ok {
+			return x.LatticeAliasSum
+		}
+	}
+	return nil
+}
+
+func (x *BatchResponse) GetCompareLattices() *CompareLatticesResponse {
+	if x != nil {
+		if x, ok := x.Result.(*BatchResponse_CompareLattices); ok {
+			return x.CompareLattices
+		}
+	}
+	return nil
+}
+
 func (x *BatchResponse) GetError() *ItemError {
 	if x != nil {
 		if x, ok := x.Result.(*BatchResponse_Error); ok {
@@ -1146,6 +1594,16 @@ type BatchResponse_PlanScan struct {
 	PlanScan *PlanScanResponse `protobuf:"bytes,5,opt,name=plan_scan,json=planScan,proto3,oneof"`
 }
 
+type BatchResponse_LatticeAliasSum struct {
+	// Result of a lattice alias sum.
+	LatticeAliasSum *LatticeAliasSumResponse `protobuf:"bytes,6,opt,name=lattice_alias_sum,json=latticeAliasSum,proto3,oneof"`
+}
+
+type BatchResponse_CompareLattices struct {
+	// Result of a lattice comparison.
+	CompareLattices *CompareLatticesResponse `protobuf:"bytes,7,opt,name=compare_lattices,json=compareLattices,proto3,oneof"`
+}
+
 type BatchResponse_Error struct {
 	// The error the matching unary call would have returned.
 	Error *ItemError `protobuf:"bytes,15,opt,name=error,proto3,oneof"`
@@ -1158,6 +1616,10 @@ func (*BatchResponse_ErrorBudget) isBatchResponse_Result() {}
 func (*BatchResponse_PlanGrid) isBatchResponse_Result() {}
 
 func (*BatchResponse_PlanScan) isBatchResponse_Result() {}
+
+func (*BatchResponse_LatticeAliasSum) isBatchResponse_Result() {}
+
+func (*BatchResponse_CompareLattices) isBatchResponse_Result() {}
 
 func (*BatchResponse_Error) isBatchResponse_Result() {}
 
@@ -1179,7 +1641,7 @@ type ItemError struct {
 
 func (x *ItemError) Reset() {
 	*x = ItemError{}
-	mi := &file_foldbound_v1_service_proto_msgTypes[10]
+	mi := &file_foldbound_v1_service_proto_msgTypes[14]
 	ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
 	ms.StoreMessageInfo(mi)
 }
@@ -1191,7 +1653,7 @@ func (x *ItemError) String() string {
 func (*ItemError) ProtoMessage() {}
 
 func (x *ItemError) ProtoReflect() protoreflect.Message {
-	mi := &file_foldbound_v1_service_proto_msgTypes[10]
+	mi := &file_foldbound_v1_service_proto_msgTypes[14]
 	if x != nil {
 		ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
 		if ms.LoadMessageInfo() == nil {
@@ -1204,7 +1666,7 @@ func (x *ItemError) ProtoReflect() protoreflect.Message {
 
 // Deprecated: Use ItemError.ProtoReflect.Descriptor instead.
 func (*ItemError) Descriptor() ([]byte, []int) {
-	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{10}
+	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{14}
 }
 
 func (x *ItemError) GetCode() int32 {
@@ -1242,7 +1704,7 @@ type FieldViolation struct {
 
 func (x *FieldViolation) Reset() {
 	*x = FieldViolation{}
-	mi := &file_foldbound_v1_service_proto_msgTypes[11]
+	mi := &file_foldbound_v1_service_proto_msgTypes[15]
 	ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
 	ms.StoreMessageInfo(mi)
 }
@@ -1254,7 +1716,7 @@ func (x *FieldViolation) String() string {
 func (*FieldViolation) ProtoMessage() {}
 
 func (x *FieldViolation) ProtoReflect() protoreflect.Message {
-	mi := &file_foldbound_v1_service_proto_msgTypes[11]
+	mi := &file_foldbound_v1_service_proto_msgTypes[15]
 	if x != nil {
 		ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
 		if ms.LoadMessageInfo() == nil {
@@ -1267,7 +1729,7 @@ func (x *FieldViolation) ProtoReflect() protoreflect.Message {
 
 // Deprecated: Use FieldViolation.ProtoReflect.Descriptor instead.
 func (*FieldViolation) Descriptor() ([]byte, []int) {
-	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{11}
+	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{15}
 }
 
 func (x *FieldViolation) GetField() string {
@@ -1288,7 +1750,7 @@ var File_foldbound_v1_service_proto protoreflect.FileDescriptor
 
 const file_foldbound_v1_service_proto_rawDesc = "" +
 	"\n" +
-	"\x1afoldbound/v1/service.proto\x12\ffoldbound.v1\x1a\x19foldbound/v1/budget.proto\x1a\x1dfoldbound/v1/convention.proto\x1a\x1bfoldbound/v1/envelope.proto\x1a\x19foldbound/v1/family.proto\x1a\x17foldbound/v1/grid.proto\x1a\x1afoldbound/v1/numbers.proto\x1a\x17foldbound/v1/plan.proto\x1a\x17foldbound/v1/scan.proto\"\xe7\x01\n" +
+	"\x1afoldbound/v1/service.proto\x12\ffoldbound.v1\x1a\x19foldbound/v1/budget.proto\x1a\x1dfoldbound/v1/convention.proto\x1a\x1bfoldbound/v1/envelope.proto\x1a\x19foldbound/v1/family.proto\x1a\x17foldbound/v1/grid.proto\x1a\x1afoldbound/v1/lattice.proto\x1a\x1afoldbound/v1/numbers.proto\x1a\x17foldbound/v1/plan.proto\x1a\x17foldbound/v1/scan.proto\"\xe7\x01\n" +
 	"\x0fAliasSumRequest\x12,\n" +
 	"\x06family\x18\x01 \x01(\v2\x14.foldbound.v1.FamilyR\x06family\x12(\n" +
 	"\x05grids\x18\x02 \x03(\v2\x12.foldbound.v1.GridR\x05grids\x12\x0e\n" +
@@ -1371,20 +1833,66 @@ const file_foldbound_v1_service_proto_rawDesc = "" +
 	"\n" +
 	"short_scan\x18\x06 \x01(\bR\tshortScan\">\n" +
 	"\x10PlanScanResponse\x12*\n" +
-	"\x04plan\x18\x01 \x01(\v2\x16.foldbound.v1.ScanPlanR\x04plan\"\xaa\x02\n" +
+	"\x04plan\x18\x01 \x01(\v2\x16.foldbound.v1.ScanPlanR\x04plan\"\x8b\x02\n" +
+	"\x16LatticeAliasSumRequest\x12,\n" +
+	"\x06family\x18\x01 \x01(\v2\x14.foldbound.v1.FamilyR\x06family\x12/\n" +
+	"\alattice\x18\x02 \x01(\v2\x15.foldbound.v1.LatticeR\alattice\x12\x14\n" +
+	"\x05shift\x18\x03 \x03(\x01R\x05shift\x12\x0e\n" +
+	"\x02xi\x18\x04 \x03(\x01R\x02xi\x128\n" +
+	"\n" +
+	"convention\x18\x05 \x01(\x0e2\x18.foldbound.v1.ConventionR\n" +
+	"convention\x122\n" +
+	"\bsettings\x18\x06 \x01(\v2\x16.foldbound.v1.SettingsR\bsettings\"\x9b\x03\n" +
+	"\x17LatticeAliasSumResponse\x127\n" +
+	"\asampled\x18\x01 \x01(\v2\x1d.foldbound.v1.ComplexIntervalR\asampled\x123\n" +
+	"\x05exact\x18\x02 \x01(\v2\x1d.foldbound.v1.ComplexIntervalR\x05exact\x123\n" +
+	"\x05alias\x18\x03 \x01(\v2\x1d.foldbound.v1.ComplexIntervalR\x05alias\x123\n" +
+	"\x06method\x18\x04 \x01(\v2\x1b.foldbound.v1.LatticeMethodR\x06method\x12<\n" +
+	"\n" +
+	"convention\x18\x05 \x01(\v2\x1c.foldbound.v1.ConventionUsedR\n" +
+	"convention\x12\x16\n" +
+	"\x06family\x18\x06 \x01(\tR\x06family\x123\n" +
+	"\alattice\x18\a \x01(\v2\x19.foldbound.v1.LatticeInfoR\alattice\x12\x1d\n" +
+	"\n" +
+	"xi_angular\x18\b \x03(\x01R\txiAngular\"\xcc\x02\n" +
+	"\x16CompareLatticesRequest\x12\x10\n" +
+	"\x03dim\x18\x01 \x01(\x05R\x03dim\x126\n" +
+	"\bspectral\x18\x02 \x03(\v2\x1a.foldbound.v1.EnvelopeTermR\bspectral\x12\x12\n" +
+	"\x04band\x18\x03 \x01(\x01R\x04band\x12\x1d\n" +
+	"\n" +
+	"whole_band\x18\x04 \x01(\bR\twholeBand\x12\x10\n" +
+	"\x03tol\x18\x05 \x01(\x01R\x03tol\x125\n" +
+	"\n" +
+	"candidates\x18\x06 \x03(\v2\x15.foldbound.v1.LatticeR\n" +
+	"candidates\x128\n" +
+	"\n" +
+	"convention\x18\a \x01(\x0e2\x18.foldbound.v1.ConventionR\n" +
+	"convention\x122\n" +
+	"\bsettings\x18\b \x01(\v2\x16.foldbound.v1.SettingsR\bsettings\"\xd5\x01\n" +
+	"\x17CompareLatticesResponse\x127\n" +
+	"\treference\x18\x01 \x01(\v2\x19.foldbound.v1.LatticePlanR\treference\x12/\n" +
+	"\x05plans\x18\x02 \x03(\v2\x19.foldbound.v1.LatticePlanR\x05plans\x12\x12\n" +
+	"\x04band\x18\x03 \x01(\x01R\x04band\x12<\n" +
+	"\n" +
+	"convention\x18\x04 \x01(\v2\x1c.foldbound.v1.ConventionUsedR\n" +
+	"convention\"\xd1\x03\n" +
 	"\fBatchRequest\x12\x0e\n" +
 	"\x02id\x18\x01 \x01(\tR\x02id\x12<\n" +
 	"\talias_sum\x18\x02 \x01(\v2\x1d.foldbound.v1.AliasSumRequestH\x00R\baliasSum\x12E\n" +
 	"\ferror_budget\x18\x03 \x01(\v2 .foldbound.v1.ErrorBudgetRequestH\x00R\verrorBudget\x12<\n" +
 	"\tplan_grid\x18\x04 \x01(\v2\x1d.foldbound.v1.PlanGridRequestH\x00R\bplanGrid\x12<\n" +
-	"\tplan_scan\x18\x05 \x01(\v2\x1d.foldbound.v1.PlanScanRequestH\x00R\bplanScanB\t\n" +
-	"\arequest\"\xdf\x02\n" +
+	"\tplan_scan\x18\x05 \x01(\v2\x1d.foldbound.v1.PlanScanRequestH\x00R\bplanScan\x12R\n" +
+	"\x11lattice_alias_sum\x18\x06 \x01(\v2$.foldbound.v1.LatticeAliasSumRequestH\x00R\x0flatticeAliasSum\x12Q\n" +
+	"\x10compare_lattices\x18\a \x01(\v2$.foldbound.v1.CompareLatticesRequestH\x00R\x0fcompareLatticesB\t\n" +
+	"\arequest\"\x88\x04\n" +
 	"\rBatchResponse\x12\x0e\n" +
 	"\x02id\x18\x01 \x01(\tR\x02id\x12=\n" +
 	"\talias_sum\x18\x02 \x01(\v2\x1e.foldbound.v1.AliasSumResponseH\x00R\baliasSum\x12F\n" +
 	"\ferror_budget\x18\x03 \x01(\v2!.foldbound.v1.ErrorBudgetResponseH\x00R\verrorBudget\x12=\n" +
 	"\tplan_grid\x18\x04 \x01(\v2\x1e.foldbound.v1.PlanGridResponseH\x00R\bplanGrid\x12=\n" +
-	"\tplan_scan\x18\x05 \x01(\v2\x1e.foldbound.v1.PlanScanResponseH\x00R\bplanScan\x12/\n" +
+	"\tplan_scan\x18\x05 \x01(\v2\x1e.foldbound.v1.PlanScanResponseH\x00R\bplanScan\x12S\n" +
+	"\x11lattice_alias_sum\x18\x06 \x01(\v2%.foldbound.v1.LatticeAliasSumResponseH\x00R\x0flatticeAliasSum\x12R\n" +
+	"\x10compare_lattices\x18\a \x01(\v2%.foldbound.v1.CompareLatticesResponseH\x00R\x0fcompareLattices\x12/\n" +
 	"\x05error\x18\x0f \x01(\v2\x17.foldbound.v1.ItemErrorH\x00R\x05errorB\b\n" +
 	"\x06result\"\x82\x01\n" +
 	"\tItemError\x12\x12\n" +
@@ -1393,12 +1901,14 @@ const file_foldbound_v1_service_proto_rawDesc = "" +
 	"\x10field_violations\x18\x03 \x03(\v2\x1c.foldbound.v1.FieldViolationR\x0ffieldViolations\"H\n" +
 	"\x0eFieldViolation\x12\x14\n" +
 	"\x05field\x18\x01 \x01(\tR\x05field\x12 \n" +
-	"\vdescription\x18\x02 \x01(\tR\vdescription2\x8c\x03\n" +
+	"\vdescription\x18\x02 \x01(\tR\vdescription2\xcc\x04\n" +
 	"\x0fSamplingService\x12I\n" +
 	"\bAliasSum\x12\x1d.foldbound.v1.AliasSumRequest\x1a\x1e.foldbound.v1.AliasSumResponse\x12R\n" +
 	"\vErrorBudget\x12 .foldbound.v1.ErrorBudgetRequest\x1a!.foldbound.v1.ErrorBudgetResponse\x12I\n" +
 	"\bPlanGrid\x12\x1d.foldbound.v1.PlanGridRequest\x1a\x1e.foldbound.v1.PlanGridResponse\x12I\n" +
-	"\bPlanScan\x12\x1d.foldbound.v1.PlanScanRequest\x1a\x1e.foldbound.v1.PlanScanResponse\x12D\n" +
+	"\bPlanScan\x12\x1d.foldbound.v1.PlanScanRequest\x1a\x1e.foldbound.v1.PlanScanResponse\x12^\n" +
+	"\x0fLatticeAliasSum\x12$.foldbound.v1.LatticeAliasSumRequest\x1a%.foldbound.v1.LatticeAliasSumResponse\x12^\n" +
+	"\x0fCompareLattices\x12$.foldbound.v1.CompareLatticesRequest\x1a%.foldbound.v1.CompareLatticesResponse\x12D\n" +
 	"\x05Batch\x12\x1a.foldbound.v1.BatchRequest\x1a\x1b.foldbound.v1.BatchResponse(\x010\x01B(Z&foldbound/api/foldbound/v1;foldboundv1b\x06proto3"
 
 var (
@@ -1413,94 +1923,128 @@ func file_foldbound_v1_service_proto_rawDescGZIP() []byte {
 	return file_foldbound_v1_service_proto_rawDescData
 }
 
-var file_foldbound_v1_service_proto_msgTypes = make([]protoimpl.MessageInfo, 12)
+var file_foldbound_v1_service_proto_msgTypes = make([]protoimpl.MessageInfo, 16)
 var file_foldbound_v1_service_proto_goTypes = []any{
-	(*AliasSumRequest)(nil),     // 0: foldbound.v1.AliasSumRequest
-	(*AliasSumResponse)(nil),    // 1: foldbound.v1.AliasSumResponse
-	(*ErrorBudgetRequest)(nil),  // 2: foldbound.v1.ErrorBudgetRequest
-	(*ErrorBudgetResponse)(nil), // 3: foldbound.v1.ErrorBudgetResponse
-	(*PlanGridRequest)(nil),     // 4: foldbound.v1.PlanGridRequest
-	(*PlanGridResponse)(nil),    // 5: foldbound.v1.PlanGridResponse
-	(*PlanScanRequest)(nil),     // 6: foldbound.v1.PlanScanRequest
-	(*PlanScanResponse)(nil),    // 7: foldbound.v1.PlanScanResponse
-	(*BatchRequest)(nil),        // 8: foldbound.v1.BatchRequest
-	(*BatchResponse)(nil),       // 9: foldbound.v1.BatchResponse
-	(*ItemError)(nil),           // 10: foldbound.v1.ItemError
-	(*FieldViolation)(nil),      // 11: foldbound.v1.FieldViolation
-	(*Family)(nil),              // 12: foldbound.v1.Family
-	(*Grid)(nil),                // 13: foldbound.v1.Grid
-	(Convention)(0),             // 14: foldbound.v1.Convention
-	(*Settings)(nil),            // 15: foldbound.v1.Settings
-	(*ComplexInterval)(nil),     // 16: foldbound.v1.ComplexInterval
-	(*Method)(nil),              // 17: foldbound.v1.Method
-	(*ConventionUsed)(nil),      // 18: foldbound.v1.ConventionUsed
-	(*Envelopes)(nil),           // 19: foldbound.v1.Envelopes
-	(*Band)(nil),                // 20: foldbound.v1.Band
-	(*ErrorBudget)(nil),         // 21: foldbound.v1.ErrorBudget
-	(*CostModel)(nil),           // 22: foldbound.v1.CostModel
-	(*PlannedAxis)(nil),         // 23: foldbound.v1.PlannedAxis
-	(*Verification)(nil),        // 24: foldbound.v1.Verification
-	(ScanGeometry)(0),           // 25: foldbound.v1.ScanGeometry
-	(*ScanPlan)(nil),            // 26: foldbound.v1.ScanPlan
+	(*AliasSumRequest)(nil),         // 0: foldbound.v1.AliasSumRequest
+	(*AliasSumResponse)(nil),        // 1: foldbound.v1.AliasSumResponse
+	(*ErrorBudgetRequest)(nil),      // 2: foldbound.v1.ErrorBudgetRequest
+	(*ErrorBudgetResponse)(nil),     // 3: foldbound.v1.ErrorBudgetResponse
+	(*PlanGridRequest)(nil),         // 4: foldbound.v1.PlanGridRequest
+	(*PlanGridResponse)(nil),        // 5: foldbound.v1.PlanGridResponse
+	(*PlanScanRequest)(nil),         // 6: foldbound.v1.PlanScanRequest
+	(*PlanScanResponse)(nil),        // 7: foldbound.v1.PlanScanResponse
+	(*LatticeAliasSumRequest)(nil),  // 8: foldbound.v1.LatticeAliasSumRequest
+	(*LatticeAliasSumResponse)(nil), // 9: foldbound.v1.LatticeAliasSumResponse
+	(*CompareLatticesRequest)(nil),  // 10: foldbound.v1.CompareLatticesRequest
+	(*CompareLatticesResponse)(nil), // 11: foldbound.v1.CompareLatticesResponse
+	(*BatchRequest)(nil),            // 12: foldbound.v1.BatchRequest
+	(*BatchResponse)(nil),           // 13: foldbound.v1.BatchResponse
+	(*ItemError)(nil),               // 14: foldbound.v1.ItemError
+	(*FieldViolation)(nil),          // 15: foldbound.v1.FieldViolation
+	(*Family)(nil),                  // 16: foldbound.v1.Family
+	(*Grid)(nil),                    // 17: foldbound.v1.Grid
+	(Convention)(0),                 // 18: foldbound.v1.Convention
+	(*Settings)(nil),                // 19: foldbound.v1.Settings
+	(*ComplexInterval)(nil),         // 20: foldbound.v1.ComplexInterval
+	(*Method)(nil),                  // 21: foldbound.v1.Method
+	(*ConventionUsed)(nil),          // 22: foldbound.v1.ConventionUsed
+	(*Envelopes)(nil),               // 23: foldbound.v1.Envelopes
+	(*Band)(nil),                    // 24: foldbound.v1.Band
+	(*ErrorBudget)(nil),             // 25: foldbound.v1.ErrorBudget
+	(*CostModel)(nil),               // 26: foldbound.v1.CostModel
+	(*PlannedAxis)(nil),             // 27: foldbound.v1.PlannedAxis
+	(*Verification)(nil),            // 28: foldbound.v1.Verification
+	(ScanGeometry)(0),               // 29: foldbound.v1.ScanGeometry
+	(*ScanPlan)(nil),                // 30: foldbound.v1.ScanPlan
+	(*Lattice)(nil),                 // 31: foldbound.v1.Lattice
+	(*LatticeMethod)(nil),           // 32: foldbound.v1.LatticeMethod
+	(*LatticeInfo)(nil),             // 33: foldbound.v1.LatticeInfo
+	(*EnvelopeTerm)(nil),            // 34: foldbound.v1.EnvelopeTerm
+	(*LatticePlan)(nil),             // 35: foldbound.v1.LatticePlan
 }
 var file_foldbound_v1_service_proto_depIdxs = []int32{
-	12, // 0: foldbound.v1.AliasSumRequest.family:type_name -> foldbound.v1.Family
-	13, // 1: foldbound.v1.AliasSumRequest.grids:type_name -> foldbound.v1.Grid
-	14, // 2: foldbound.v1.AliasSumRequest.convention:type_name -> foldbound.v1.Convention
-	15, // 3: foldbound.v1.AliasSumRequest.settings:type_name -> foldbound.v1.Settings
-	16, // 4: foldbound.v1.AliasSumResponse.sampled:type_name -> foldbound.v1.ComplexInterval
-	16, // 5: foldbound.v1.AliasSumResponse.exact:type_name -> foldbound.v1.ComplexInterval
-	16, // 6: foldbound.v1.AliasSumResponse.error:type_name -> foldbound.v1.ComplexInterval
-	16, // 7: foldbound.v1.AliasSumResponse.alias:type_name -> foldbound.v1.ComplexInterval
-	16, // 8: foldbound.v1.AliasSumResponse.truncation:type_name -> foldbound.v1.ComplexInterval
-	17, // 9: foldbound.v1.AliasSumResponse.method:type_name -> foldbound.v1.Method
-	18, // 10: foldbound.v1.AliasSumResponse.convention:type_name -> foldbound.v1.ConventionUsed
-	12, // 11: foldbound.v1.ErrorBudgetRequest.family:type_name -> foldbound.v1.Family
-	19, // 12: foldbound.v1.ErrorBudgetRequest.envelopes:type_name -> foldbound.v1.Envelopes
-	13, // 13: foldbound.v1.ErrorBudgetRequest.grids:type_name -> foldbound.v1.Grid
-	20, // 14: foldbound.v1.ErrorBudgetRequest.frequency:type_name -> foldbound.v1.Band
-	14, // 15: foldbound.v1.ErrorBudgetRequest.convention:type_name -> foldbound.v1.Convention
-	15, // 16: foldbound.v1.ErrorBudgetRequest.settings:type_name -> foldbound.v1.Settings
-	21, // 17: foldbound.v1.ErrorBudgetResponse.budget:type_name -> foldbound.v1.ErrorBudget
-	18, // 18: foldbound.v1.ErrorBudgetResponse.convention:type_name -> foldbound.v1.ConventionUsed
-	20, // 19: foldbound.v1.ErrorBudgetResponse.frequency:type_name -> foldbound.v1.Band
-	12, // 20: foldbound.v1.PlanGridRequest.family:type_name -> foldbound.v1.Family
-	19, // 21: foldbound.v1.PlanGridRequest.envelopes:type_name -> foldbound.v1.Envelopes
-	20, // 22: foldbound.v1.PlanGridRequest.frequency:type_name -> foldbound.v1.Band
-	22, // 23: foldbound.v1.PlanGridRequest.cost:type_name -> foldbound.v1.CostModel
-	14, // 24: foldbound.v1.PlanGridRequest.convention:type_name -> foldbound.v1.Convention
-	15, // 25: foldbound.v1.PlanGridRequest.settings:type_name -> foldbound.v1.Settings
-	23, // 26: foldbound.v1.PlanGridResponse.axes:type_name -> foldbound.v1.PlannedAxis
-	21, // 27: foldbound.v1.PlanGridResponse.budget:type_name -> foldbound.v1.ErrorBudget
-	24, // 28: foldbound.v1.PlanGridResponse.verification:type_name -> foldbound.v1.Verification
-	18, // 29: foldbound.v1.PlanGridResponse.convention:type_name -> foldbound.v1.ConventionUsed
-	25, // 30: foldbound.v1.PlanScanRequest.geometry:type_name -> foldbound.v1.ScanGeometry
-	26, // 31: foldbound.v1.PlanScanResponse.plan:type_name -> foldbound.v1.ScanPlan
-	0,  // 32: foldbound.v1.BatchRequest.alias_sum:type_name -> foldbound.v1.AliasSumRequest
-	2,  // 33: foldbound.v1.BatchRequest.error_budget:type_name -> foldbound.v1.ErrorBudgetRequest
-	4,  // 34: foldbound.v1.BatchRequest.plan_grid:type_name -> foldbound.v1.PlanGridRequest
-	6,  // 35: foldbound.v1.BatchRequest.plan_scan:type_name -> foldbound.v1.PlanScanRequest
-	1,  // 36: foldbound.v1.BatchResponse.alias_sum:type_name -> foldbound.v1.AliasSumResponse
-	3,  // 37: foldbound.v1.BatchResponse.error_budget:type_name -> foldbound.v1.ErrorBudgetResponse
-	5,  // 38: foldbound.v1.BatchResponse.plan_grid:type_name -> foldbound.v1.PlanGridResponse
-	7,  // 39: foldbound.v1.BatchResponse.plan_scan:type_name -> foldbound.v1.PlanScanResponse
-	10, // 40: foldbound.v1.BatchResponse.error:type_name -> foldbound.v1.ItemError
-	11, // 41: foldbound.v1.ItemError.field_violations:type_name -> foldbound.v1.FieldViolation
-	0,  // 42: foldbound.v1.SamplingService.AliasSum:input_type -> foldbound.v1.AliasSumRequest
-	2,  // 43: foldbound.v1.SamplingService.ErrorBudget:input_type -> foldbound.v1.ErrorBudgetRequest
-	4,  // 44: foldbound.v1.SamplingService.PlanGrid:input_type -> foldbound.v1.PlanGridRequest
-	6,  // 45: foldbound.v1.SamplingService.PlanScan:input_type -> foldbound.v1.PlanScanRequest
-	8,  // 46: foldbound.v1.SamplingService.Batch:input_type -> foldbound.v1.BatchRequest
-	1,  // 47: foldbound.v1.SamplingService.AliasSum:output_type -> foldbound.v1.AliasSumResponse
-	3,  // 48: foldbound.v1.SamplingService.ErrorBudget:output_type -> foldbound.v1.ErrorBudgetResponse
-	5,  // 49: foldbound.v1.SamplingService.PlanGrid:output_type -> foldbound.v1.PlanGridResponse
-	7,  // 50: foldbound.v1.SamplingService.PlanScan:output_type -> foldbound.v1.PlanScanResponse
-	9,  // 51: foldbound.v1.SamplingService.Batch:output_type -> foldbound.v1.BatchResponse
-	47, // [47:52] is the sub-list for method output_type
-	42, // [42:47] is the sub-list for method input_type
-	42, // [42:42] is the sub-list for extension type_name
-	42, // [42:42] is the sub-list for extension extendee
-	0,  // [0:42] is the sub-list for field type_name
+	16, // 0: foldbound.v1.AliasSumRequest.family:type_name -> foldbound.v1.Family
+	17, // 1: foldbound.v1.AliasSumRequest.grids:type_name -> foldbound.v1.Grid
+	18, // 2: foldbound.v1.AliasSumRequest.convention:type_name -> foldbound.v1.Convention
+	19, // 3: foldbound.v1.AliasSumRequest.settings:type_name -> foldbound.v1.Settings
+	20, // 4: foldbound.v1.AliasSumResponse.sampled:type_name -> foldbound.v1.ComplexInterval
+	20, // 5: foldbound.v1.AliasSumResponse.exact:type_name -> foldbound.v1.ComplexInterval
+	20, // 6: foldbound.v1.AliasSumResponse.error:type_name -> foldbound.v1.ComplexInterval
+	20, // 7: foldbound.v1.AliasSumResponse.alias:type_name -> foldbound.v1.ComplexInterval
+	20, // 8: foldbound.v1.AliasSumResponse.truncation:type_name -> foldbound.v1.ComplexInterval
+	21, // 9: foldbound.v1.AliasSumResponse.method:type_name -> foldbound.v1.Method
+	22, // 10: foldbound.v1.AliasSumResponse.convention:type_name -> foldbound.v1.ConventionUsed
+	16, // 11: foldbound.v1.ErrorBudgetRequest.family:type_name -> foldbound.v1.Family
+	23, // 12: foldbound.v1.ErrorBudgetRequest.envelopes:type_name -> foldbound.v1.Envelopes
+	17, // 13: foldbound.v1.ErrorBudgetRequest.grids:type_name -> foldbound.v1.Grid
+	24, // 14: foldbound.v1.ErrorBudgetRequest.frequency:type_name -> foldbound.v1.Band
+	18, // 15: foldbound.v1.ErrorBudgetRequest.convention:type_name -> foldbound.v1.Convention
+	19, // 16: foldbound.v1.ErrorBudgetRequest.settings:type_name -> foldbound.v1.Settings
+	25, // 17: foldbound.v1.ErrorBudgetResponse.budget:type_name -> foldbound.v1.ErrorBudget
+	22, // 18: foldbound.v1.ErrorBudgetResponse.convention:type_name -> foldbound.v1.ConventionUsed
+	24, // 19: foldbound.v1.ErrorBudgetResponse.frequency:type_name -> foldbound.v1.Band
+	16, // 20: foldbound.v1.PlanGridRequest.family:type_name -> foldbound.v1.Family
+	23, // 21: foldbound.v1.PlanGridRequest.envelopes:type_name -> foldbound.v1.Envelopes
+	24, // 22: foldbound.v1.PlanGridRequest.frequency:type_name -> foldbound.v1.Band
+	26, // 23: foldbound.v1.PlanGridRequest.cost:type_name -> foldbound.v1.CostModel
+	18, // 24: foldbound.v1.PlanGridRequest.convention:type_name -> foldbound.v1.Convention
+	19, // 25: foldbound.v1.PlanGridRequest.settings:type_name -> foldbound.v1.Settings
+	27, // 26: foldbound.v1.PlanGridResponse.axes:type_name -> foldbound.v1.PlannedAxis
+	25, // 27: foldbound.v1.PlanGridResponse.budget:type_name -> foldbound.v1.ErrorBudget
+	28, // 28: foldbound.v1.PlanGridResponse.verification:type_name -> foldbound.v1.Verification
+	22, // 29: foldbound.v1.PlanGridResponse.convention:type_name -> foldbound.v1.ConventionUsed
+	29, // 30: foldbound.v1.PlanScanRequest.geometry:type_name -> foldbound.v1.ScanGeometry
+	30, // 31: foldbound.v1.PlanScanResponse.plan:type_name -> foldbound.v1.ScanPlan
+	16, // 32: foldbound.v1.LatticeAliasSumRequest.family:type_name -> foldbound.v1.Family
+	31, // 33: foldbound.v1.LatticeAliasSumRequest.lattice:type_name -> foldbound.v1.Lattice
+	18, // 34: foldbound.v1.LatticeAliasSumRequest.convention:type_name -> foldbound.v1.Convention
+	19, // 35: foldbound.v1.LatticeAliasSumRequest.settings:type_name -> foldbound.v1.Settings
+	20, // 36: foldbound.v1.LatticeAliasSumResponse.sampled:type_name -> foldbound.v1.ComplexInterval
+	20, // 37: foldbound.v1.LatticeAliasSumResponse.exact:type_name -> foldbound.v1.ComplexInterval
+	20, // 38: foldbound.v1.LatticeAliasSumResponse.alias:type_name -> foldbound.v1.ComplexInterval
+	32, // 39: foldbound.v1.LatticeAliasSumResponse.method:type_name -> foldbound.v1.LatticeMethod
+	22, // 40: foldbound.v1.LatticeAliasSumResponse.convention:type_name -> foldbound.v1.ConventionUsed
+	33, // 41: foldbound.v1.LatticeAliasSumResponse.lattice:type_name -> foldbound.v1.LatticeInfo
+	34, // 42: foldbound.v1.CompareLatticesRequest.spectral:type_name -> foldbound.v1.EnvelopeTerm
+	31, // 43: foldbound.v1.CompareLatticesRequest.candidates:type_name -> foldbound.v1.Lattice
+	18, // 44: foldbound.v1.CompareLatticesRequest.convention:type_name -> foldbound.v1.Convention
+	19, // 45: foldbound.v1.CompareLatticesRequest.settings:type_name -> foldbound.v1.Settings
+	35, // 46: foldbound.v1.CompareLatticesResponse.reference:type_name -> foldbound.v1.LatticePlan
+	35, // 47: foldbound.v1.CompareLatticesResponse.plans:type_name -> foldbound.v1.LatticePlan
+	22, // 48: foldbound.v1.CompareLatticesResponse.convention:type_name -> foldbound.v1.ConventionUsed
+	0,  // 49: foldbound.v1.BatchRequest.alias_sum:type_name -> foldbound.v1.AliasSumRequest
+	2,  // 50: foldbound.v1.BatchRequest.error_budget:type_name -> foldbound.v1.ErrorBudgetRequest
+	4,  // 51: foldbound.v1.BatchRequest.plan_grid:type_name -> foldbound.v1.PlanGridRequest
+	6,  // 52: foldbound.v1.BatchRequest.plan_scan:type_name -> foldbound.v1.PlanScanRequest
+	8,  // 53: foldbound.v1.BatchRequest.lattice_alias_sum:type_name -> foldbound.v1.LatticeAliasSumRequest
+	10, // 54: foldbound.v1.BatchRequest.compare_lattices:type_name -> foldbound.v1.CompareLatticesRequest
+	1,  // 55: foldbound.v1.BatchResponse.alias_sum:type_name -> foldbound.v1.AliasSumResponse
+	3,  // 56: foldbound.v1.BatchResponse.error_budget:type_name -> foldbound.v1.ErrorBudgetResponse
+	5,  // 57: foldbound.v1.BatchResponse.plan_grid:type_name -> foldbound.v1.PlanGridResponse
+	7,  // 58: foldbound.v1.BatchResponse.plan_scan:type_name -> foldbound.v1.PlanScanResponse
+	9,  // 59: foldbound.v1.BatchResponse.lattice_alias_sum:type_name -> foldbound.v1.LatticeAliasSumResponse
+	11, // 60: foldbound.v1.BatchResponse.compare_lattices:type_name -> foldbound.v1.CompareLatticesResponse
+	14, // 61: foldbound.v1.BatchResponse.error:type_name -> foldbound.v1.ItemError
+	15, // 62: foldbound.v1.ItemError.field_violations:type_name -> foldbound.v1.FieldViolation
+	0,  // 63: foldbound.v1.SamplingService.AliasSum:input_type -> foldbound.v1.AliasSumRequest
+	2,  // 64: foldbound.v1.SamplingService.ErrorBudget:input_type -> foldbound.v1.ErrorBudgetRequest
+	4,  // 65: foldbound.v1.SamplingService.PlanGrid:input_type -> foldbound.v1.PlanGridRequest
+	6,  // 66: foldbound.v1.SamplingService.PlanScan:input_type -> foldbound.v1.PlanScanRequest
+	8,  // 67: foldbound.v1.SamplingService.LatticeAliasSum:input_type -> foldbound.v1.LatticeAliasSumRequest
+	10, // 68: foldbound.v1.SamplingService.CompareLattices:input_type -> foldbound.v1.CompareLatticesRequest
+	12, // 69: foldbound.v1.SamplingService.Batch:input_type -> foldbound.v1.BatchRequest
+	1,  // 70: foldbound.v1.SamplingService.AliasSum:output_type -> foldbound.v1.AliasSumResponse
+	3,  // 71: foldbound.v1.SamplingService.ErrorBudget:output_type -> foldbound.v1.ErrorBudgetResponse
+	5,  // 72: foldbound.v1.SamplingService.PlanGrid:output_type -> foldbound.v1.PlanGridResponse
+	7,  // 73: foldbound.v1.SamplingService.PlanScan:output_type -> foldbound.v1.PlanScanResponse
+	9,  // 74: foldbound.v1.SamplingService.LatticeAliasSum:output_type -> foldbound.v1.LatticeAliasSumResponse
+	11, // 75: foldbound.v1.SamplingService.CompareLattices:output_type -> foldbound.v1.CompareLatticesResponse
+	13, // 76: foldbound.v1.SamplingService.Batch:output_type -> foldbound.v1.BatchResponse
+	70, // [70:77] is the sub-list for method output_type
+	63, // [63:70] is the sub-list for method input_type
+	63, // [63:63] is the sub-list for extension type_name
+	63, // [63:63] is the sub-list for extension extendee
+	0,  // [0:63] is the sub-list for field type_name
 }
 
 func init() { file_foldbound_v1_service_proto_init() }
@@ -1513,6 +2057,7 @@ func file_foldbound_v1_service_proto_init() {
 	file_foldbound_v1_envelope_proto_init()
 	file_foldbound_v1_family_proto_init()
 	file_foldbound_v1_grid_proto_init()
+	file_foldbound_v1_lattice_proto_init()
 	file_foldbound_v1_numbers_proto_init()
 	file_foldbound_v1_plan_proto_init()
 	file_foldbound_v1_scan_proto_init()
@@ -1524,17 +2069,21 @@ func file_foldbound_v1_service_proto_init() {
 		(*PlanGridRequest_Family)(nil),
 		(*PlanGridRequest_Envelopes)(nil),
 	}
-	file_foldbound_v1_service_proto_msgTypes[8].OneofWrappers = []any{
+	file_foldbound_v1_service_proto_msgTypes[12].OneofWrappers = []any{
 		(*BatchRequest_AliasSum)(nil),
 		(*BatchRequest_ErrorBudget)(nil),
 		(*BatchRequest_PlanGrid)(nil),
 		(*BatchRequest_PlanScan)(nil),
+		(*BatchRequest_LatticeAliasSum)(nil),
+		(*BatchRequest_CompareLattices)(nil),
 	}
-	file_foldbound_v1_service_proto_msgTypes[9].OneofWrappers = []any{
+	file_foldbound_v1_service_proto_msgTypes[13].OneofWrappers = []any{
 		(*BatchResponse_AliasSum)(nil),
 		(*BatchResponse_ErrorBudget)(nil),
 		(*BatchResponse_PlanGrid)(nil),
 		(*BatchResponse_PlanScan)(nil),
+		(*BatchResponse_LatticeAliasSum)(nil),
+		(*BatchResponse_CompareLattices)(nil),
 		(*BatchResponse_Error)(nil),
 	}
 	type x struct{}
@@ -1543,7 +2092,7 @@ func file_foldbound_v1_service_proto_init() {
 			GoPackagePath: reflect.TypeOf(x{}).PkgPath(),
 			RawDescriptor: unsafe.Slice(unsafe.StringData(file_foldbound_v1_service_proto_rawDesc), len(file_foldbound_v1_service_proto_rawDesc)),
 			NumEnums:      0,
-			NumMessages:   12,
+			NumMessages:   16,
 			NumExtensions: 0,
 			NumServices:   1,
 		},

@@ -19,11 +19,13 @@ import (
 const _ = grpc.SupportPackageIsVersion9
 
 const (
-	SamplingService_AliasSum_FullMethodName    = "/foldbound.v1.SamplingService/AliasSum"
-	SamplingService_ErrorBudget_FullMethodName = "/foldbound.v1.SamplingService/ErrorBudget"
-	SamplingService_PlanGrid_FullMethodName    = "/foldbound.v1.SamplingService/PlanGrid"
-	SamplingService_PlanScan_FullMethodName    = "/foldbound.v1.SamplingService/PlanScan"
-	SamplingService_Batch_FullMethodName       = "/foldbound.v1.SamplingService/Batch"
+	SamplingService_AliasSum_FullMethodName        = "/foldbound.v1.SamplingService/AliasSum"
+	SamplingService_ErrorBudget_FullMethodName     = "/foldbound.v1.SamplingService/ErrorBudget"
+	SamplingService_PlanGrid_FullMethodName        = "/foldbound.v1.SamplingService/PlanGrid"
+	SamplingService_PlanScan_FullMethodName        = "/foldbound.v1.SamplingService/PlanScan"
+	SamplingService_LatticeAliasSum_FullMethodName = "/foldbound.v1.SamplingService/LatticeAliasSum"
+	SamplingService_CompareLattices_FullMethodName = "/foldbound.v1.SamplingService/CompareLattices"
+	SamplingService_Batch_FullMethodName           = "/foldbound.v1.SamplingService/Batch"
 )
 
 // SamplingServiceClient is the client API for SamplingService service.
@@ -44,9 +46,8 @@ const (
 // stops when the call's context ends), UNIMPLEMENTED (a call this server
 // version cannot answer yet), INTERNAL (a bug; logged).
 //
-// Room is left for lattice calls (general lattices, lattice comparison),
-// which will be added as further rpcs and as further request kinds of
-// Batch.
+// Further questions (e.g. gridding-kernel plans) will be added as further
+// rpcs and as further request kinds of Batch.
 type SamplingServiceClient interface {
 	// AliasSum computes the sampled sum T of a family on a grid at one
 	// frequency, the exact transform F, and the error T - F split into its
@@ -67,6 +68,17 @@ type SamplingServiceClient interface {
 	// the interlaced scheme. The answer is sampling mathematics, not a scan
 	// protocol, and says so in its caution.
 	PlanScan(ctx context.Context, in *PlanScanRequest, opts ...grpc.CallOption) (*PlanScanResponse, error)
+	// LatticeAliasSum computes the sampled sum of an n-dimensional family on
+	// a shifted lattice (built-in or given by a generator matrix), the exact
+	// transform and the alias sum, by the lattice Poisson formula, as
+	// certified complex enclosures.
+	LatticeAliasSum(ctx context.Context, in *LatticeAliasSumRequest, opts ...grpc.CallOption) (*LatticeAliasSumResponse, error)
+	// CompareLattices finds, for an isotropic spectral envelope and a
+	// tolerance, the coarsest scale of each candidate lattice (the built-in
+	// ones of the dimension and any given) whose certified alias bound meets
+	// the tolerance, and ranks them by samples per unit volume, with the
+	// saving against the rectangular grid.
+	CompareLattices(ctx context.Context, in *CompareLatticesRequest, opts ...grpc.CallOption) (*CompareLatticesResponse, error)
 	// Batch answers many requests over one stream. Each item carries an id
 	// chosen by the caller; each response carries the same id and either a
 	// result or an error. Responses may arrive in any order. A stream that
@@ -126,6 +138,26 @@ func (c *samplingServiceClient) PlanScan(ctx context.Context, in *PlanScanReques
 	return out, nil
 }
 
+func (c *samplingServiceClient) LatticeAliasSum(ctx context.Context, in *LatticeAliasSumRequest, opts ...grpc.CallOption) (*LatticeAliasSumResponse, error) {
+	cOpts := append([]grpc.CallOption{grpc.StaticMethod()}, opts...)
+	out := new(LatticeAliasSumResponse)
+	err := c.cc.Invoke(ctx, SamplingService_LatticeAliasSum_FullMethodName, in, out, cOpts...)
+	if err != nil {
+		return nil, err
+	}
+	return out, nil
+}
+
+func (c *samplingServiceClient) CompareLattices(ctx context.Context, in *CompareLatticesRequest, opts ...grpc.CallOption) (*CompareLatticesResponse, error) {
+	cOpts := append([]grpc.CallOption{grpc.StaticMethod()}, opts...)
+	out := new(CompareLatticesResponse)
+	err := c.cc.Invoke(ctx, SamplingService_CompareLattices_FullMethodName, in, out, cOpts...)
+	if err != nil {
+		return nil, err
+	}
+	return out, nil
+}
+
 func (c *samplingServiceClient) Batch(ctx context.Context, opts ...grpc.CallOption) (grpc.BidiStreamingClient[BatchRequest, BatchResponse], error) {
 	cOpts := append([]grpc.CallOption{grpc.StaticMethod()}, opts...)
 	stream, err := c.cc.NewStream(ctx, &SamplingService_ServiceDesc.Streams[0], SamplingService_Batch_FullMethodName, cOpts...)
@@ -157,9 +189,8 @@ type SamplingService_BatchClient = grpc.BidiStreamingClient[BatchRequest, BatchR
 // stops when the call's context ends), UNIMPLEMENTED (a call this server
 // version cannot answer yet), INTERNAL (a bug; logged).
 //
-// Room is left for lattice calls (general lattices, lattice comparison),
-// which will be added as further rpcs and as further request kinds of
-// Batch.
+// Further questions (e.g. gridding-kernel plans) will be added as further
+// rpcs and as further request kinds of Batch.
 type SamplingServiceServer interface {
 	// AliasSum computes the sampled sum T of a family on a grid at one
 	// frequency, the exact transform F, and the error T - F split into its
@@ -180,6 +211,17 @@ type SamplingServiceServer interface {
 	// the interlaced scheme. The answer is sampling mathematics, not a scan
 	// protocol, and says so in its caution.
 	PlanScan(context.Context, *PlanScanRequest) (*PlanScanResponse, error)
+	// LatticeAliasSum computes the sampled sum of an n-dimensional family on
+	// a shifted lattice (built-in or given by a generator matrix), the exact
+	// transform and the alias sum, by the lattice Poisson formula, as
+	// certified complex enclosures.
+	LatticeAliasSum(context.Context, *LatticeAliasSumRequest) (*LatticeAliasSumResponse, error)
+	// CompareLattices finds, for an isotropic spectral envelope and a
+	// tolerance, the coarsest scale of each candidate lattice (the built-in
+	// ones of the dimension and any given) whose certified alias bound meets
+	// the tolerance, and ranks them by samples per unit volume, with the
+	// saving against the rectangular grid.
+	CompareLattices(context.Context, *CompareLatticesRequest) (*CompareLatticesResponse, error)
 	// Batch answers many requests over one stream. Each item carries an id
 	// chosen by the caller; each response carries the same id and either a
 	// result or an error. Responses may arrive in any order. A stream that
@@ -210,6 +252,12 @@ func (UnimplementedSamplingServiceServer) PlanGrid(context.Context, *PlanGridReq
 }
 func (UnimplementedSamplingServiceServer) PlanScan(context.Context, *PlanScanRequest) (*PlanScanResponse, error) {
 	return nil, status.Error(codes.Unimplemented, "method PlanScan not implemented")
+}
+func (UnimplementedSamplingServiceServer) LatticeAliasSum(context.Context, *LatticeAliasSumRequest) (*LatticeAliasSumResponse, error) {
+	return nil, status.Error(codes.Unimplemented, "method LatticeAliasSum not implemented")
+}
+func (UnimplementedSamplingServiceServer) CompareLattices(context.Context, *CompareLatticesRequest) (*CompareLatticesResponse, error) {
+	return nil, status.Error(codes.Unimplemented, "method CompareLattices not implemented")
 }
 func (UnimplementedSamplingServiceServer) Batch(grpc.BidiStreamingServer[BatchRequest, BatchResponse]) error {
 	return status.Error(codes.Unimplemented, "method Batch not implemented")
@@ -307,6 +355,42 @@ func _SamplingService_PlanScan_Handler(srv interface{}, ctx context.Context, dec
 	return interceptor(ctx, in, info, handler)
 }
 
+func _SamplingService_LatticeAliasSum_Handler(srv interface{}, ctx context.Context, dec func(interface{}) error, interceptor grpc.UnaryServerInterceptor) (interface{}, error) {
+	in := new(LatticeAliasSumRequest)
+	if err := dec(in); err != nil {
+		return nil, err
+	}
+	if interceptor == nil {
+		return srv.(SamplingServiceServer).LatticeAliasSum(ctx, in)
+	}
+	info := &grpc.UnaryServerInfo{
+		Server:     srv,
+		FullMethod: SamplingService_LatticeAliasSum_FullMethodName,
+	}
+	handler := func(ctx context.Context, req interface{}) (interface{}, error) {
+		return srv.(SamplingServiceServer).LatticeAliasSum(ctx, req.(*LatticeAliasSumRequest))
+	}
+	return interceptor(ctx, in, info, handler)
+}
+
+func _SamplingService_CompareLattices_Handler(srv interface{}, ctx context.Context, dec func(interface{}) error, interceptor grpc.UnaryServerInterceptor) (interface{}, error) {
+	in := new(CompareLatticesRequest)
+	if err := dec(in); err != nil {
+		return nil, err
+	}
+	if interceptor == nil {
+		return srv.(SamplingServiceServer).CompareLattices(ctx, in)
+	}
+	info := &grpc.UnaryServerInfo{
+		Server:     srv,
+		FullMethod: SamplingService_CompareLattices_FullMethodName,
+	}
+	handler := func(ctx context.Context, req interface{}) (interface{}, error) {
+		return srv.(SamplingServiceServer).CompareLattices(ctx, req.(*CompareLatticesRequest))
+	}
+	return interceptor(ctx, in, info, handler)
+}
+
 func _SamplingService_Batch_Handler(srv interface{}, stream grpc.ServerStream) error {
 	return srv.(SamplingServiceServer).Batch(&grpc.GenericServerStream[BatchRequest, BatchResponse]{ServerStream: stream})
 }
@@ -336,6 +420,14 @@ var SamplingService_ServiceDesc = grpc.ServiceDesc{
 		{
 			MethodName: "PlanScan",
 			Handler:    _SamplingService_PlanScan_Handler,
+		},
+		{
+			MethodName: "LatticeAliasSum",
+			Handler:    _SamplingService_LatticeAliasSum_Handler,
+		},
+		{
+			MethodName: "CompareLattices",
+			Handler:    _SamplingService_CompareLattices_Handler,
 		},
 	},
 	Streams: []grpc.StreamDesc{
