@@ -24,6 +24,8 @@ func TestBadInput(t *testing.T) {
 	const maxMsg = 64 << 10
 	addr, _ := startServer(t, server.Config{Limits: server.Limits{MaxRecvMsgBytes: maxMsg}})
 	c := newClient(t, addr)
+	addrDefault, _ := startServer(t, server.Config{}) // default 4 MiB messages
+	cDefault := newClient(t, addrDefault)
 	ctx := context.Background()
 
 	g1 := []*pb.Grid{client.Grid(1, 0, 0)}
@@ -140,7 +142,10 @@ func TestBadInput(t *testing.T) {
 		// Protobuf refuses to decode nesting beyond 10000 levels, and gRPC
 		// reports every decoding failure as INTERNAL, before the service
 		// sees the request (documented in the README).
-		{"nesting beyond the decoder's limit", alias(abysmal, g1), codes.Internal, "recursion depth"},
+		{"nesting beyond the decoder's limit", func() error {
+			_, err := cDefault.AliasSum(ctx, &pb.AliasSumRequest{Family: abysmal, Grids: g1})
+			return err
+		}, codes.Internal, "recursion depth"},
 		{"work over max_terms", aliasReq(&pb.AliasSumRequest{Family: client.Gaussian(1), Grids: []*pb.Grid{client.Grid(0.01, 0, 100001)},
 			Settings: &pb.Settings{MaxTerms: 1000, Side: pb.Side_SIDE_SPATIAL}}), codes.ResourceExhausted, "settings.max_terms"},
 	}
