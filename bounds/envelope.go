@@ -144,7 +144,9 @@ func (e Envelope) Shifted(c float64) Envelope {
 	out := make(Envelope, len(e))
 	for i, t := range e {
 		nc := t.Center + c
-		t.Plateau = addUp(t.Plateau, math.Abs(twoSumErr(t.Center, c, nc)))
+		if err := twoSumErr(t.Center, c, nc); err != 0 {
+			t.Plateau = addUp(t.Plateau, math.Abs(err))
+		}
 		t.Center = nc
 		out[i] = t
 	}
@@ -163,25 +165,50 @@ func (e Envelope) Scaled(k float64) Envelope {
 }
 
 // Dilated returns the envelope of g(x/a) given the envelope e of g, for
-// a > 0: centres, plateaus and widths scale by a, rates by 1/a, and any
-// rounding of a new centre joins its plateau.
+// a > 0 (see dilateEnvelope).
 func (e Envelope) Dilated(a float64) Envelope {
-	out := make(Envelope, len(e))
+	return dilateEnvelope(e, false, Point(a))
+}
+
+// dilateEnvelope returns an envelope of g(x/b), for every b in the interval
+// B (B.Lo > 0), given an envelope e of g; with reflect it is an envelope of
+// g(-x/b). A term A·g(max(0, |y - c| - p)) becomes at y = x/b
+//
+//	A·g(max(0, |x - bc| - bp)/b) ≤ A·g(max(0, |x - c'| - p')/B.Hi)
+//
+// for any centre c' and p' ≥ p·B.Hi + max_b |bc - c'|, because every
+// profile g is non-increasing; so rates are divided by B.Hi (rounded down)
+// and widths multiplied by B.Hi (rounded up): every rounding is on the safe
+// side.
+func dilateEnvelope(e Envelope, reflect bool, B Interval) Envelope {
+	out := append(Envelope(nil), e...)
+	dilateTerms(out, reflect, B)
+	return out
+}
+
+// dilateTerms is dilateEnvelope in place.
+func dilateTerms(e Envelope, reflect bool, B Interval) {
 	for i, t := range e {
-		nc := t.Center * a
-		t.Plateau = addUp(mulUp(t.Plateau, a), math.Abs(math.FMA(t.Center, a, -nc)))
+		c := t.Center
+		if reflect {
+			c = -c
+		}
+		cb := Point(c).Mul(B)
+		nc := cb.Mid()
 		t.Center = nc
+		t.Plateau = mulUp(t.Plateau, B.Hi)
+		if cb.Lo != cb.Hi {
+			rad := math.Max(addUp(cb.Hi, -nc), addUp(nc, -cb.Lo))
+			t.Plateau = addUp(t.Plateau, rad)
+		}
 		switch t.Decay {
 		case Exponential:
-			t.Rate = divDown(t.Rate, a)
-		case Gaussian, Algebraic:
-			t.Width = mulDown(t.Width, a)
-		case Compact:
-			t.Width = mulUp(t.Width, a)
+			t.Rate = divDown(t.Rate, B.Hi)
+		case Gaussian, Algebraic, Compact:
+			t.Width = mulUp(t.Width, B.Hi)
 		}
-		out[i] = t
+		e[i] = t
 	}
-	return out
 }
 
 // twoSumErr returns the exact rounding error (a + b) - s of s = RN(a + b)

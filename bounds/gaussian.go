@@ -46,5 +46,5 @@ func (g GaussianFamily) Spatial() Envelope {
 
 // Spectral is the transform itself: amplitude σ√(2π), width 1/σ.
 func (g GaussianFamily) Spectral() Envelope {
-	return Envelope{{Decay: Gaussian, Amplitude: SqrtTwoPi.Scale(g.Sigma).Hi, Width: divDown(1, g.Sigma)}}
+	return Envelope{{Decay: Gaussian, Amplitude: SqrtTwoPi.Scale(g.Sigma).Hi, Width: divUp(1, g.Sigma)}}
 }
