@@ -51,7 +51,8 @@ type Limits struct {
 	// 2^40.
 	MaxCount int64
 	// MaxFamilyNodes is the largest number of nodes in a family tree.
-	// Default 1024.
+	// Default bounds.MaxComposeNodes (64), the engine's own limit for a
+	// composed family.
 	MaxFamilyNodes int
 	// MaxFamilyDepth is the deepest nesting of a family tree. Default 32.
 	MaxFamilyDepth int
@@ -101,7 +102,7 @@ func (l Limits) withDefaults() Limits {
 	setInt64(&l.DefaultTerms, bounds.DefaultMaxTerms)
 	setInt64(&l.MaxTerms, 1<<24)
 	setInt64(&l.MaxCount, 1<<40)
-	setInt(&l.MaxFamilyNodes, 1024)
+	setInt(&l.MaxFamilyNodes, bounds.MaxComposeNodes)
 	setInt(&l.MaxFamilyDepth, 32)
 	setInt(&l.MaxEnvelopeTerms, 64)
 	setInt64(&l.MaxStreamItems, 1<<20)

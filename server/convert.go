@@ -27,17 +27,87 @@ func notInEngine(path string, f *pb.Family) error {
 	return &unimplementedError{field: path + "." + kindName(f), what: "this family is not available in this server's engine yet"}
 }
 
-// family1D converts a validated one-dimensional family tree.
+// family1D converts a validated one-dimensional family tree. Each leaf is
+// checked by the engine as it is built, so that an engine-only rule (an
+// envelope leaving the float64 range) is reported at the leaf's wire path.
 func family1D(path string, f *pb.Family) (bounds.Family, error) {
+	leaf := func(g bounds.Family) (bounds.Family, error) {
+		if err := bounds.Validate(g); err != nil {
+			return nil, atWirePath(err, path+"."+kindName(f))
+		}
+		return g, nil
+	}
+	sub := func(name string, g *pb.Family) (bounds.Family, error) {
+		return family1D(path+"."+kindName(f)+"."+name, g)
+	}
 	switch k := f.GetKind().(type) {
 	case *pb.Family_Gaussian:
-		return bounds.GaussianFamily{Sigma: k.Gaussian.GetSigma()}, nil
+		return leaf(bounds.GaussianFamily{Sigma: k.Gaussian.GetSigma()})
+	case *pb.Family_TwoSidedExponential:
+		return leaf(bounds.ExponentialFamily{Rate: k.TwoSidedExponential.GetA()})
+	case *pb.Family_Lorentzian:
+		return leaf(bounds.LorentzianFamily{Width: k.Lorentzian.GetA()})
+	case *pb.Family_Sech:
+		return leaf(bounds.SechFamily{Width: k.Sech.GetW()})
+	case *pb.Family_SechSquared:
+		return leaf(bounds.SechSquaredFamily{Width: k.SechSquared.GetW()})
+	case *pb.Family_WavePacket:
+		return leaf(bounds.WavePacketFamily{Sigma: k.WavePacket.GetSigma(), Omega0: k.WavePacket.GetOmega0()})
+	case *pb.Family_Fejer:
+		return leaf(bounds.FejerFamily{Omega: k.Fejer.GetOmega()})
 	case *pb.Family_BSpline:
-		return bounds.BSplineFamily{Order: int(k.BSpline.GetOrder())}, nil
+		return leaf(bounds.BSplineFamily{Order: int(k.BSpline.GetOrder())})
 	case *pb.Family_KaiserBessel:
-		return bounds.KaiserBesselFamily{Width: k.KaiserBessel.GetWidth(), Beta: k.KaiserBessel.GetBeta()}, nil
+		return leaf(bounds.KaiserBesselFamily{Width: k.KaiserBessel.GetWidth(), Beta: k.KaiserBessel.GetBeta()})
+	case *pb.Family_Amplitude:
+		of, err := sub("of", k.Amplitude.GetOf())
+		if err != nil {
+			return nil, err
+		}
+		z := k.Amplitude.GetFactor()
+		return bounds.AmplitudeFamily{Re: z.GetRe(), Im: z.GetIm(), Of: of}, nil
+	case *pb.Family_Shift:
+		of, err := sub("of", k.Shift.GetOf())
+		if err != nil {
+			return nil, err
+		}
+		return bounds.ShiftFamily{By: k.Shift.GetBy(), Of: of}, nil
+	case *pb.Family_Dilation:
+		of, err := sub("of", k.Dilation.GetOf())
+		if err != nil {
+			return nil, err
+		}
+		return bounds.DilationFamily{By: k.Dilation.GetFactor(), Of: of}, nil
+	case *pb.Family_Modulation:
+		of, err := sub("of", k.Modulation.GetOf())
+		if err != nil {
+			return nil, err
+		}
+		return bounds.ModulationFamily{Omega0: k.Modulation.GetOmega0(), Of: of}, nil
+	case *pb.Family_Sum:
+		terms := make([]bounds.Family, len(k.Sum.GetTerms()))
+		for i, t := range k.Sum.GetTerms() {
+			var err error
+			if terms[i], err = family1D(fmt.Sprintf("%s.sum.terms[%d]", path, i), t); err != nil {
+				return nil, err
+			}
+		}
+		return bounds.SumFamily{Terms: terms}, nil
 	}
 	return nil, notInEngine(path, f)
+}
+
+// rootFamily1D converts a validated one-dimensional family and checks the
+// composed tree as a whole (node budget, derived envelopes in range).
+func rootFamily1D(path string, f *pb.Family) (bounds.Family, error) {
+	g, err := family1D(path, f)
+	if err != nil {
+		return nil, err
+	}
+	if err := bounds.Validate(g); err != nil {
+		return nil, wirePaths(err)
+	}
+	return g, nil
 }
 
 // familyND converts a validated family tree of dimension dim to an
@@ -49,7 +119,7 @@ func familyND(path string, f *pb.Family, dim int) (bounds.FamilyND, error) {
 		axes := make([]bounds.Family, len(k.Separable.GetFactors()))
 		for i, g := range k.Separable.GetFactors() {
 			var err error
-			if axes[i], err = family1D(fmt.Sprintf("%s.separable.factors[%d]", path, i), g); err != nil {
+			if axes[i], err = rootFamily1D(fmt.Sprintf("%s.separable.factors[%d]", path, i), g); err != nil {
 				return nil, err
 			}
 		}
@@ -61,7 +131,7 @@ func familyND(path string, f *pb.Family, dim int) (bounds.FamilyND, error) {
 		}
 		return bounds.RadialGaussian{Sigma: k.RadialGaussian.GetSigma(), Center: append([]float64(nil), c...)}, nil
 	}
-	f1, err := family1D(path, f)
+	f1, err := rootFamily1D(path, f)
 	if err != nil {
 		return nil, err
 	}

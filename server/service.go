@@ -91,7 +91,7 @@ func (s *service) aliasSum(ctx context.Context, req *pb.AliasSumRequest) (*pb.Al
 		name string
 	)
 	if kind := req.GetFamily().GetKind(); dim == 1 && !isND(kind) {
-		f, err := family1D("family", req.GetFamily())
+		f, err := rootFamily1D("family", req.GetFamily())
 		if err != nil {
 			return nil, err
 		}
@@ -150,7 +150,7 @@ func (s *service) errorBudget(ctx context.Context, req *pb.ErrorBudgetRequest) (
 	)
 	switch {
 	case req.GetFamily() != nil:
-		f, err := family1D("family", req.GetFamily())
+		f, err := rootFamily1D("family", req.GetFamily())
 		if err != nil {
 			return nil, err
 		}

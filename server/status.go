@@ -61,9 +61,9 @@ func (e *unimplementedError) Error() string {
 
 // wirePaths renames the parameter path of an engine *bounds.ParamError
 // from the engine's names for a one-dimensional call ("grid.step",
-// "gaussian.sigma", "band.center") to the request's field paths
-// ("grids[0].step", "family.gaussian.sigma", "frequency.center[0]").
-// Other errors pass unchanged.
+// "sum[1].lorentzian.width", "band.center") to the request's field paths
+// ("grids[0].step", "family.sum.terms[1].lorentzian.a",
+// "frequency.center[0]"). Other errors pass unchanged.
 func wirePaths(err error) error {
 	var pe *bounds.ParamError
 	if !errors.As(err, &pe) {
@@ -74,6 +74,7 @@ func wirePaths(err error) error {
 	if rest != "" {
 		rest = "." + rest
 	}
+	head, _, _ = strings.Cut(head, "[")
 	switch head {
 	case "settings":
 	case "grid":
@@ -89,14 +90,73 @@ func wirePaths(err error) error {
 	case "family":
 		p = "family" + rest
 	default:
-		p = "family." + p
+		p = "family." + wireFamilyPath(p)
 	}
 	return &bounds.ParamError{Param: p, Reason: pe.Reason, Err: pe.Err}
 }
 
-// wirePathsND renames the parameter path of an engine error of AliasSumND,
-// whose names ("grids[j].step", "xi[j]", "separable.axes[j]...") are
-// already close to the request's.
+// atWirePath renames the path of an engine error about one family node
+// ("lorentzian.width") to the node's wire path (leaf, e.g.
+// "family.sum.terms[1].lorentzian") plus the wire name of the field.
+func atWirePath(err error, leaf string) error {
+	var pe *bounds.ParamError
+	if !errors.As(err, &pe) {
+		return err
+	}
+	wp := wireFamilyPath(pe.Param)
+	if _, field, ok := strings.Cut(wp, "."); ok {
+		leaf += "." + field
+	}
+	return &bounds.ParamError{Param: leaf, Reason: pe.Reason, Err: pe.Err}
+}
+
+// wireFamilyPath translates an engine family path, segment by segment,
+// to the names of family.proto.
+func wireFamilyPath(p string) string {
+	segs := strings.Split(p, ".")
+	out := make([]string, 0, len(segs)+2)
+	kind := ""
+	for _, s := range segs {
+		name, index, _ := strings.Cut(s, "[")
+		if index != "" {
+			index = "[" + index
+		}
+		switch name {
+		case "exponential":
+			name = "two_sided_exponential"
+		case "sech2":
+			name = "sech_squared"
+		case "wavepacket":
+			name = "wave_packet"
+		case "bspline":
+			name = "b_spline"
+		case "sum":
+			out = append(out, "sum")
+			name, kind = "terms", "sum"
+		case "axes":
+			name = "factors"
+		}
+		switch {
+		case (kind == "two_sided_exponential" && name == "rate") || (kind == "lorentzian" && name == "width"):
+			name = "a"
+		case (kind == "sech" || kind == "sech_squared") && name == "width":
+			name = "w"
+		case kind == "amplitude" && (name == "re" || name == "im"):
+			name = "factor." + name
+		case kind == "dilation" && name == "by":
+			name = "factor"
+		}
+		if kind != "sum" || name != "terms" {
+			kind = name
+		}
+		out = append(out, name+index)
+	}
+	return strings.Join(out, ".")
+}
+
+// wirePathsND renames the parameter path of an engine error of the
+// n-dimensional calls, whose names ("grids[j].step", "xi[j]",
+// "separable.axes[j]...") are already close to the request's.
 func wirePathsND(err error) error {
 	var pe *bounds.ParamError
 	if !errors.As(err, &pe) {
@@ -104,11 +164,10 @@ func wirePathsND(err error) error {
 	}
 	p := pe.Param
 	switch {
-	case strings.HasPrefix(p, "grids"), strings.HasPrefix(p, "xi"), strings.HasPrefix(p, "settings"), p == "family":
-	case strings.HasPrefix(p, "separable.axes"):
-		p = "family.separable.factors" + strings.TrimPrefix(p, "separable.axes")
+	case strings.HasPrefix(p, "grids"), strings.HasPrefix(p, "xi"), strings.HasPrefix(p, "shift"),
+		strings.HasPrefix(p, "settings"), strings.HasPrefix(p, "lattice"), p == "family":
 	default:
-		p = "family." + p
+		p = "family." + wireFamilyPath(p)
 	}
 	return &bounds.ParamError{Param: p, Reason: pe.Reason, Err: pe.Err}
 }

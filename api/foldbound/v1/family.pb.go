@@ -27,8 +27,9 @@ const (
 // One-dimensional kinds (leaves and compositions) may nest freely. The
 // n-dimensional kinds (`separable`, `radial_gaussian`) may appear only at
 // the root of a tree. Servers limit the depth of a tree (default 32
-// levels) and its number of nodes (default 1024); beyond those the request
-// is rejected with INVALID_ARGUMENT.
+// levels) and its number of nodes (default 64, the engine's limit for a
+// composed family); beyond those the request is rejected with
+// INVALID_ARGUMENT.
 //
 // Transforms are stated in the angular convention
 // F(xi) = integral f(x) exp(-i xi x) dx; the request's convention only
