@@ -18,8 +18,8 @@ import (
 
 // Item wraps a request as a Batch item with the given id. req must be an
 // *AliasSumRequest, *ErrorBudgetRequest, *PlanGridRequest,
-// *PlanScanRequest, *LatticeAliasSumRequest or *CompareLatticesRequest;
-// Item panics
+// *PlanScanRequest, *LatticeAliasSumRequest, *CompareLatticesRequest or
+// *PlanKernelRequest; Item panics
 // on any other type (a programming error).
 func Item(id string, req proto.Message) *pb.BatchRequest {
 	b := &pb.BatchRequest{Id: id}
@@ -36,6 +36,8 @@ func Item(id string, req proto.Message) *pb.BatchRequest {
 		b.Request = &pb.BatchRequest_LatticeAliasSum{LatticeAliasSum: r}
 	case *pb.CompareLatticesRequest:
 		b.Request = &pb.BatchRequest_CompareLattices{CompareLattices: r}
+	case *pb.PlanKernelRequest:
+		b.Request = &pb.BatchRequest_PlanKernel{PlanKernel: r}
 	default:
 		panic(fmt.Sprintf("client.Item: %T is not a SamplingService request", req))
 	}

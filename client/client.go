@@ -190,6 +190,14 @@ func (c *Client) CompareLattices(ctx context.Context, req *pb.CompareLatticesReq
 	return c.rpc.CompareLattices(ctx, req, opts...)
 }
 
+// PlanKernel returns gridding-kernel plans of a non-uniform FFT for a
+// tolerance.
+func (c *Client) PlanKernel(ctx context.Context, req *pb.PlanKernelRequest, opts ...grpc.CallOption) (*pb.PlanKernelResponse, error) {
+	ctx, cancel := withDeadline(ctx, c.o.timeout)
+	defer cancel()
+	return c.rpc.PlanKernel(ctx, req, opts...)
+}
+
 // Check asks the standard health service about service ("" for the
 // server as a whole).
 func (c *Client) Check(ctx context.Context, service string) (healthpb.HealthCheckResponse_ServingStatus, error) {

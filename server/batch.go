@@ -148,11 +148,16 @@ func (s *service) answer(ctx context.Context, req *pb.BatchRequest) (resp *pb.Ba
 			if res, err = s.compareLattices(ctx, r.CompareLattices); err == nil {
 				resp.Result = &pb.BatchResponse_CompareLattices{CompareLattices: res}
 			}
+		case *pb.BatchRequest_PlanKernel:
+			var res *pb.PlanKernelResponse
+			if res, err = s.planKernel(ctx, r.PlanKernel); err == nil {
+				resp.Result = &pb.BatchResponse_PlanKernel{PlanKernel: res}
+			}
 		default:
 			if len(req.ProtoReflect().GetUnknown()) > 0 {
 				err = &unimplementedError{field: "request", what: "request kind not known to this server (is the client newer?)"}
 			} else {
-				err = &requestError{code: codes.InvalidArgument, violations: []violation{{"request", "one of alias_sum, error_budget, plan_grid, plan_scan, lattice_alias_sum or compare_lattices is required"}}}
+				err = &requestError{code: codes.InvalidArgument, violations: []violation{{"request", "one of alias_sum, error_budget, plan_grid, plan_scan, lattice_alias_sum, compare_lattices or plan_kernel is required"}}}
 			}
 		}
 	}

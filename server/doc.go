@@ -13,6 +13,7 @@
 //	convert.go      wire <-> engine conversion, Fourier conventions
 //	service.go      the unary calls
 //	lattice.go      the lattice calls: rules, conversion, handlers
+//	kernel.go       the gridding-kernel call: rules, conversion, handler
 //	batch.go        the Batch stream
 //	status.go       errors -> gRPC status codes
 //

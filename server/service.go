@@ -74,6 +74,15 @@ func (s *service) CompareLattices(ctx context.Context, req *pb.CompareLatticesRe
 	return res, nil
 }
 
+// PlanKernel implements SamplingService.PlanKernel.
+func (s *service) PlanKernel(ctx context.Context, req *pb.PlanKernelRequest) (*pb.PlanKernelResponse, error) {
+	res, err := s.planKernel(ctx, req)
+	if err != nil {
+		return nil, toStatus(err).Err()
+	}
+	return res, nil
+}
+
 // aliasSum answers an AliasSumRequest; errors are mapped by the caller.
 func (s *service) aliasSum(ctx context.Context, req *pb.AliasSumRequest) (*pb.AliasSumResponse, error) {
 	dim, err := s.lim.checkAliasSum(req)

@@ -120,6 +120,12 @@ func summary(r *pb.BatchResponse) string {
 	case *pb.BatchResponse_CompareLattices:
 		best := x.CompareLattices.GetPlans()[0]
 		return fmt.Sprintf("lattice comparison: %s saves %.2f%% against the rectangular grid", best.GetLattice().GetName(), 100*best.GetSaving())
+	case *pb.BatchResponse_PlanKernel:
+		if len(x.PlanKernel.GetOptions()) == 0 {
+			return "kernel plan: no option"
+		}
+		o := x.PlanKernel.GetOptions()[0]
+		return fmt.Sprintf("kernel plan: σ = %g, W = %d, β = %.4g, total %s", o.GetOversampling(), o.GetKernel().GetWidth(), o.GetKernel().GetBeta(), fmtBound(o.GetTotal()))
 	case *pb.BatchResponse_PlanGrid:
 		p := x.PlanGrid
 		return fmt.Sprintf("plan: %d samples, total %s", p.GetTotalSamples(), fmtBound(p.GetBudget().GetTotal()))

@@ -10,6 +10,7 @@
 //	foldbound plan   …              cheapest certified grid
 //	foldbound scan   …              tomography scan sampling (mathematics only)
 //	foldbound lattice sum|compare   alias sums on lattices, lattice comparison
+//	foldbound kernel …              gridding kernels of a non-uniform FFT
 //	foldbound batch  --request F    many requests over one stream
 //	foldbound demo                  a worked scenario, end to end
 package main

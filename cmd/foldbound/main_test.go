@@ -227,6 +227,29 @@ func TestLatticeCommands(t *testing.T) {
 	}
 }
 
+func TestKernelCommand(t *testing.T) {
+	out, errOut, code := runCLI(t, "kernel", "--modes", "128", "--tol", "1e-9", "--verify", "300")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	for _, want := range []string{"gridding kernels for 128 modes", "kaiser-bessel", "recommended", "verification on 300 random points"} {
+		if !strings.Contains(out, want) {
+			t.Errorf("human output lacks %q:\n%s", want, out)
+		}
+	}
+	out, errOut, code = runCLI(t, "kernel", "--modes", "128", "--tol", "1e-6", "--shape", "gaussian", "--json")
+	if code != 0 {
+		t.Fatalf("--json: exit %d: %s", code, errOut)
+	}
+	var res pb.PlanKernelResponse
+	if err := protojson.Unmarshal([]byte(out), &res); err != nil {
+		t.Fatal(err)
+	}
+	if len(res.GetOptions()) == 0 || res.GetOptions()[0].GetTotal() > 1e-6 {
+		t.Errorf("options %v: want at least one within 1e-6", res.GetOptions())
+	}
+}
+
 func TestBadInputFromTheCommandLine(t *testing.T) {
 	tests := []struct {
 		name string

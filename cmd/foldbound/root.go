@@ -42,7 +42,7 @@ Functions are written as ` + "`name(key=value, …)`" + `, e.g. 'gaussian(sigma=
 	root.SetOut(stdout)
 	root.SetErr(stderr)
 	root.AddCommand(newServeCmd(stderr), newAliasCmd(stdout, stderr), newBudgetCmd(stdout, stderr),
-		newPlanCmd(stdout, stderr), newScanCmd(stdout, stderr), newLatticeCmd(stdout, stderr), newBatchCmd(stdout, stderr), newDemoCmd(stdout, stderr))
+		newPlanCmd(stdout, stderr), newScanCmd(stdout, stderr), newLatticeCmd(stdout, stderr), newKernelCmd(stdout, stderr), newBatchCmd(stdout, stderr), newDemoCmd(stdout, stderr))
 	return root
 }
 

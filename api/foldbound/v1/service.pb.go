@@ -1276,13 +1276,231 @@ func (x *CompareLatticesResponse) GetConvention() *ConventionUsed {
 	return nil
 }
 
+// PlanKernelRequest asks for the gridding kernels of a non-uniform FFT
+// (type 1 f_k = sum_j c_j exp(-i k.x_j), type 2 its adjoint; points x_j in
+// [-pi, pi]^d) that meet a tolerance.
+type PlanKernelRequest struct {
+	state protoimpl.MessageState `protogen:"open.v1"`
+	// Modes N per axis, 1 to 2^40.
+	Modes int64 `protobuf:"varint,1,opt,name=modes,proto3" json:"modes,omitempty"`
+	// Dimension d, 1 to 3; 0 means 1.
+	Dim int32 `protobuf:"varint,2,opt,name=dim,proto3" json:"dim,omitempty"`
+	// Tolerance on every output relative to sum |c_j| (type 1) or
+	// sum |f_k| (type 2); 0 < tol < 1.
+	Tol float64 `protobuf:"fixed64,3,opt,name=tol,proto3" json:"tol,omitempty"`
+	// Kernel shape. Default Kaiser-Bessel.
+	Shape KernelShape `protobuf:"varint,4,opt,name=shape,proto3,enum=foldbound.v1.KernelShape" json:"shape,omitempty"`
+	// Candidate oversampling ratios, each > 1 and <= 16, at most 64; empty
+	// for 1.25, 1.5 and 2.
+	Oversampling []float64 `protobuf:"fixed64,5,rep,packed,name=oversampling,proto3" json:"oversampling,omitempty"`
+	// Number of non-uniform points for the cost model (finite, >= 0; 0 means
+	// N^d).
+	Points float64 `protobuf:"fixed64,6,opt,name=points,proto3" json:"points,omitempty"`
+	// Cost model weights: per point and grid cell spread, and per grid point
+	// and factor log2 of the grid size for the FFT (finite, >= 0; both 0
+	// means the engine's measured defaults).
+	SpreadCost float64 `protobuf:"fixed64,7,opt,name=spread_cost,json=spreadCost,proto3" json:"spread_cost,omitempty"`
+	// See spread_cost.
+	FftCost float64 `protobuf:"fixed64,8,opt,name=fft_cost,json=fftCost,proto3" json:"fft_cost,omitempty"`
+	// Keep M = ceil(sigma N); by default M is rounded up to 2^a 3^b 5^c.
+	AnyGridSize bool `protobuf:"varint,9,opt,name=any_grid_size,json=anyGridSize,proto3" json:"any_grid_size,omitempty"`
+	// If > 0, verify the recommended option on this many random points
+	// (at most 4096; needs modes <= 65536).
+	VerifyPoints int32 `protobuf:"varint,10,opt,name=verify_points,json=verifyPoints,proto3" json:"verify_points,omitempty"`
+	// Seed of the verification points.
+	VerifySeed    uint64 `protobuf:"varint,11,opt,name=verify_seed,json=verifySeed,proto3" json:"verify_seed,omitempty"`
+	unknownFields protoimpl.UnknownFields
+	sizeCache     protoimpl.SizeCache
+}
+
+func (x *PlanKernelRequest) Reset() {
+	*x = PlanKernelRequest{}
+	mi := &file_foldbound_v1_service_proto_msgTypes[12]
+	ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
+	ms.StoreMessageInfo(mi)
+}
+
+func (x *PlanKernelRequest) String() string {
+	return protoimpl.X.MessageStringOf(x)
+}
+
+func (*PlanKernelRequest) ProtoMessage() {}
+
+func (x *PlanKernelRequest) ProtoReflect() protoreflect.Message {
+	mi := &file_foldbound_v1_service_proto_msgTypes[12]
+	if x != nil {
+		ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
+		if ms.LoadMessageInfo() == nil {
+			ms.StoreMessageInfo(mi)
+		}
+		return ms
+	}
+	return mi.MessageOf(x)
+}
+
+// Deprecated: Use PlanKernelRequest.ProtoReflect.Descriptor instead.
+func (*PlanKernelRequest) Descriptor() ([]byte, []int) {
+	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{12}
+}
+
+func (x *PlanKernelRequest) GetModes() int64 {
+	if x != nil {
+		return x.Modes
+	}
+	return 0
+}
+
+func (x *PlanKernelRequest) GetDim() int32 {
+	if x != nil {
+		return x.Dim
+	}
+	return 0
+}
+
+func (x *PlanKernelRequest) GetTol() float64 {
+	if x != nil {
+		return x.Tol
+	}
+	return 0
+}
+
+func (x *PlanKernelRequest) GetShape() KernelShape {
+	if x != nil {
+		return x.Shape
+	}
+	return KernelShape_KERNEL_SHAPE_UNSPECIFIED
+}
+
+func (x *PlanKernelRequest) GetOversampling() []float64 {
+	if x != nil {
+		return x.Oversampling
+	}
+	return nil
+}
+
+func (x *PlanKernelRequest) GetPoints() float64 {
+	if x != nil {
+		return x.Points
+	}
+	return 0
+}
+
+func (x *PlanKernelRequest) GetSpreadCost() float64 {
+	if x != nil {
+		return x.SpreadCost
+	}
+	return 0
+}
+
+func (x *PlanKernelRequest) GetFftCost() float64 {
+	if x != nil {
+		return x.FftCost
+	}
+	return 0
+}
+
+func (x *PlanKernelRequest) GetAnyGridSize() bool {
+	if x != nil {
+		return x.AnyGridSize
+	}
+	return false
+}
+
+func (x *PlanKernelRequest) GetVerifyPoints() int32 {
+	if x != nil {
+		return x.VerifyPoints
+	}
+	return 0
+}
+
+func (x *PlanKernelRequest) GetVerifySeed() uint64 {
+	if x != nil {
+		return x.VerifySeed
+	}
+	return 0
+}
+
+// PlanKernelResponse lists the options, cheapest first.
+type PlanKernelResponse struct {
+	state protoimpl.MessageState `protogen:"open.v1"`
+	// One option per candidate ratio that meets the tolerance, cheapest
+	// first; the first is the recommendation.
+	Options []*KernelOption `protobuf:"bytes,1,rep,name=options,proto3" json:"options,omitempty"`
+	// Candidates that could not meet the tolerance, and why.
+	Notes []string `protobuf:"bytes,2,rep,name=notes,proto3" json:"notes,omitempty"`
+	// The transform pair the bounds refer to.
+	Convention string `protobuf:"bytes,3,opt,name=convention,proto3" json:"convention,omitempty"`
+	// The verification run, if asked for.
+	Verification  *KernelCheck `protobuf:"bytes,4,opt,name=verification,proto3" json:"verification,omitempty"`
+	unknownFields protoimpl.UnknownFields
+	sizeCache     protoimpl.SizeCache
+}
+
+func (x *PlanKernelResponse) Reset() {
+	*x = PlanKernelResponse{}
+	mi := &file_foldbound_v1_service_proto_msgTypes[13]
+	ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
+	ms.StoreMessageInfo(mi)
+}
+
+func (x *PlanKernelResponse) String() string {
+	return protoimpl.X.MessageStringOf(x)
+}
+
+func (*PlanKernelResponse) ProtoMessage() {}
+
+func (x *PlanKernelResponse) ProtoReflect() protoreflect.Message {
+	mi := &file_foldbound_v1_service_proto_msgTypes[13]
+	if x != nil {
+		ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
+		if ms.LoadMessageInfo() == nil {
+			ms.StoreMessageInfo(mi)
+		}
+		return ms
+	}
+	return mi.MessageOf(x)
+}
+
+// Deprecated: Use PlanKernelResponse.ProtoReflect.Descriptor instead.
+func (*PlanKernelResponse) Descriptor() ([]byte, []int) {
+	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{13}
+}
+
+func (x *PlanKernelResponse) GetOptions() []*KernelOption {
+	if x != nil {
+		return x.Options
+	}
+	return nil
+}
+
+func (x *PlanKernelResponse) GetNotes() []string {
+	if x != nil {
+		return x.Notes
+	}
+	return nil
+}
+
+func (x *PlanKernelResponse) GetConvention() string {
+	if x != nil {
+		return x.Convention
+	}
+	return ""
+}
+
+func (x *PlanKernelResponse) GetVerification() *KernelCheck {
+	if x != nil {
+		return x.Verification
+	}
+	return nil
+}
+
 // BatchRequest is one item of a Batch stream.
 type BatchRequest struct {
 	state protoimpl.MessageState `protogen:"open.v1"`
 	// Caller-chosen id, 1 to 128 bytes, echoed in the response. Ids should
 	// be unique within a batch; the server does not check.
 	Id string `protobuf:"bytes,1,opt,name=id,proto3" json:"id,omitempty"`
-	// The question. Exactly one must be set. Field numbers 8-14 are kept
+	// The question. Exactly one must be set. Field numbers 9-14 are kept
 	// for further request kinds.
 	//
 	// Types that are valid to be assigned to Request:
@@ -1293,6 +1511,7 @@ type BatchRequest struct {
 	//	*BatchRequest_PlanScan
 	//	*BatchRequest_LatticeAliasSum
 	//	*BatchRequest_CompareLattices
+	//	*BatchRequest_PlanKernel
 	Request       isBatchRequest_Request `protobuf_oneof:"request"`
 	unknownFields protoimpl.UnknownFields
 	sizeCache     protoimpl.SizeCache
@@ -1300,7 +1519,7 @@ type BatchRequest struct {
 
 func (x *BatchRequest) Reset() {
 	*x = BatchRequest{}
-	mi := &file_foldbound_v1_service_proto_msgTypes[12]
+	mi := &file_foldbound_v1_service_proto_msgTypes[14]
 	ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
 	ms.StoreMessageInfo(mi)
 }
@@ -1312,7 +1531,7 @@ func (x *BatchRequest) String() string {
 func (*BatchRequest) ProtoMessage() {}
 
 func (x *BatchRequest) ProtoReflect() protoreflect.Message {
-	mi := &file_foldbound_v1_service_proto_msgTypes[12]
+	mi := &file_foldbound_v1_service_proto_msgTypes[14]
 	if x != nil {
 		ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
 		if ms.LoadMessageInfo() == nil {
@@ -1325,7 +1544,7 @@ func (x *BatchRequest) ProtoReflect() protoreflect.Message {
 
 // Deprecated: Use BatchRequest.ProtoReflect.Descriptor instead.
 func (*BatchRequest) Descriptor() ([]byte, []int) {
-	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{12}
+	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{14}
 }
 
 func (x *BatchRequest) GetId() string {
@@ -1396,6 +1615,15 @@ func (x *BatchRequest) GetCompareLattices() *CompareLatticesRequest {
 	return nil
 }
 
+func (x *BatchRequest) GetPlanKernel() *PlanKernelRequest {
+	if x != nil {
+		if x, ok := x.Request.(*BatchRequest_PlanKernel); ok {
+			return x.PlanKernel
+		}
+	}
+	return nil
+}
+
 type isBatchRequest_Request interface {
 	isBatchRequest_Request()
 }
@@ -1430,6 +1658,11 @@ type BatchRequest_CompareLattices struct {
 	CompareLattices *CompareLatticesRequest `protobuf:"bytes,7,opt,name=compare_lattices,json=compareLattices,proto3,oneof"`
 }
 
+type BatchRequest_PlanKernel struct {
+	// A gridding-kernel plan.
+	PlanKernel *PlanKernelRequest `protobuf:"bytes,8,opt,name=plan_kernel,json=planKernel,proto3,oneof"`
+}
+
 func (*BatchRequest_AliasSum) isBatchRequest_Request() {}
 
 func (*BatchRequest_ErrorBudget) isBatchRequest_Request() {}
@@ -1441,6 +1674,8 @@ func (*BatchRequest_PlanScan) isBatchRequest_Request() {}
 func (*BatchRequest_LatticeAliasSum) isBatchRequest_Request() {}
 
 func (*BatchRequest_CompareLattices) isBatchRequest_Request() {}
+
+func (*BatchRequest_PlanKernel) isBatchRequest_Request() {}
 
 // BatchResponse answers one BatchRequest.
 type BatchResponse struct {
@@ -1457,6 +1692,7 @@ type BatchResponse struct {
 	//	*BatchResponse_PlanScan
 	//	*BatchResponse_LatticeAliasSum
 	//	*BatchResponse_CompareLattices
+	//	*BatchResponse_PlanKernel
 	//	*BatchResponse_Error
 	Result        isBatchResponse_Result `protobuf_oneof:"result"`
 	unknownFields protoimpl.UnknownFields
@@ -1465,7 +1701,7 @@ type BatchResponse struct {
 
 func (x *BatchResponse) Reset() {
 	*x = BatchResponse{}
-	mi := &file_foldbound_v1_service_proto_msgTypes[13]
+	mi := &file_foldbound_v1_service_proto_msgTypes[15]
 	ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
 	ms.StoreMessageInfo(mi)
 }
@@ -1477,7 +1713,7 @@ func (x *BatchResponse) String() string {
 func (*BatchResponse) ProtoMessage() {}
 
 func (x *BatchResponse) ProtoReflect() protoreflect.Message {
-	mi := &file_foldbound_v1_service_proto_msgTypes[13]
+	mi := &file_foldbound_v1_service_proto_msgTypes[15]
 	if x != nil {
 		ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
 		if ms.LoadMessageInfo() == nil {
@@ -1490,7 +1726,7 @@ func (x *BatchResponse) ProtoReflect() protoreflect.Message {
 
 // Deprecated: Use BatchResponse.ProtoReflect.Descriptor instead.
 func (*BatchResponse) Descriptor() ([]byte, []int) {
-	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{13}
+	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{15}
 }
 
 func (x *BatchResponse) GetId() string {
@@ -1561,6 +1797,15 @@ func (x *BatchResponse) GetCompareLattices() *CompareLatticesResponse {
 	return nil
 }
 
+func (x *BatchResponse) GetPlanKernel() *PlanKernelResponse {
+	if x != nil {
+		if x, ok := x.Result.(*BatchResponse_PlanKernel); ok {
+			return x.PlanKernel
+		}
+	}
+	return nil
+}
+
 func (x *BatchResponse) GetError() *ItemError {
 	if x != nil {
 		if x, ok := x.Result.(*BatchResponse_Error); ok {
@@ -1604,6 +1849,11 @@ type BatchResponse_CompareLattices struct {
 	CompareLattices *CompareLatticesResponse `protobuf:"bytes,7,opt,name=compare_lattices,json=compareLattices,proto3,oneof"`
 }
 
+type BatchResponse_PlanKernel struct {
+	// Result of a gridding-kernel plan.
+	PlanKernel *PlanKernelResponse `protobuf:"bytes,8,opt,name=plan_kernel,json=planKernel,proto3,oneof"`
+}
+
 type BatchResponse_Error struct {
 	// The error the matching unary call would have returned.
 	Error *ItemError `protobuf:"bytes,15,opt,name=error,proto3,oneof"`
@@ -1620,6 +1870,8 @@ func (*BatchResponse_PlanScan) isBatchResponse_Result() {}
 func (*BatchResponse_LatticeAliasSum) isBatchResponse_Result() {}
 
 func (*BatchResponse_CompareLattices) isBatchResponse_Result() {}
+
+func (*BatchResponse_PlanKernel) isBatchResponse_Result() {}
 
 func (*BatchResponse_Error) isBatchResponse_Result() {}
 
@@ -1641,7 +1893,7 @@ type ItemError struct {
 
 func (x *ItemError) Reset() {
 	*x = ItemError{}
-	mi := &file_foldbound_v1_service_proto_msgTypes[14]
+	mi := &file_foldbound_v1_service_proto_msgTypes[16]
 	ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
 	ms.StoreMessageInfo(mi)
 }
@@ -1653,7 +1905,7 @@ func (x *ItemError) String() string {
 func (*ItemError) ProtoMessage() {}
 
 func (x *ItemError) ProtoReflect() protoreflect.Message {
-	mi := &file_foldbound_v1_service_proto_msgTypes[14]
+	mi := &file_foldbound_v1_service_proto_msgTypes[16]
 	if x != nil {
 		ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
 		if ms.LoadMessageInfo() == nil {
@@ -1666,7 +1918,7 @@ func (x *ItemError) ProtoReflect() protoreflect.Message {
 
 // Deprecated: Use ItemError.ProtoReflect.Descriptor instead.
 func (*ItemError) Descriptor() ([]byte, []int) {
-	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{14}
+	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{16}
 }
 
 func (x *ItemError) GetCode() int32 {
@@ -1704,7 +1956,7 @@ type FieldViolation struct {
 
 func (x *FieldViolation) Reset() {
 	*x = FieldViolation{}
-	mi := &file_foldbound_v1_service_proto_msgTypes[15]
+	mi := &file_foldbound_v1_service_proto_msgTypes[17]
 	ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
 	ms.StoreMessageInfo(mi)
 }
@@ -1716,7 +1968,7 @@ func (x *FieldViolation) String() string {
 func (*FieldViolation) ProtoMessage() {}
 
 func (x *FieldViolation) ProtoReflect() protoreflect.Message {
-	mi := &file_foldbound_v1_service_proto_msgTypes[15]
+	mi := &file_foldbound_v1_service_proto_msgTypes[17]
 	if x != nil {
 		ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
 		if ms.LoadMessageInfo() == nil {
@@ -1729,7 +1981,7 @@ func (x *FieldViolation) ProtoReflect() protoreflect.Message {
 
 // Deprecated: Use FieldViolation.ProtoReflect.Descriptor instead.
 func (*FieldViolation) Descriptor() ([]byte, []int) {
-	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{15}
+	return file_foldbound_v1_service_proto_rawDescGZIP(), []int{17}
 }
 
 func (x *FieldViolation) GetField() string {
@@ -1750,7 +2002,7 @@ var File_foldbound_v1_service_proto protoreflect.FileDescriptor
 
 const file_foldbound_v1_service_proto_rawDesc = "" +
 	"\n" +
-	"\x1afoldbound/v1/service.proto\x12\ffoldbound.v1\x1a\x19foldbound/v1/budget.proto\x1a\x1dfoldbound/v1/convention.proto\x1a\x1bfoldbound/v1/envelope.proto\x1a\x19foldbound/v1/family.proto\x1a\x17foldbound/v1/grid.proto\x1a\x1afoldbound/v1/lattice.proto\x1a\x1afoldbound/v1/numbers.proto\x1a\x17foldbound/v1/plan.proto\x1a\x17foldbound/v1/scan.proto\"\xe7\x01\n" +
+	"\x1afoldbound/v1/service.proto\x12\ffoldbound.v1\x1a\x19foldbound/v1/budget.proto\x1a\x1dfoldbound/v1/convention.proto\x1a\x1bfoldbound/v1/envelope.proto\x1a\x19foldbound/v1/family.proto\x1a\x17foldbound/v1/grid.proto\x1a\x1bfoldbound/v1/gridding.proto\x1a\x1afoldbound/v1/lattice.proto\x1a\x1afoldbound/v1/numbers.proto\x1a\x17foldbound/v1/plan.proto\x1a\x17foldbound/v1/scan.proto\"\xe7\x01\n" +
 	"\x0fAliasSumRequest\x12,\n" +
 	"\x06family\x18\x01 \x01(\v2\x14.foldbound.v1.FamilyR\x06family\x12(\n" +
 	"\x05grids\x18\x02 \x03(\v2\x12.foldbound.v1.GridR\x05grids\x12\x0e\n" +
@@ -1875,7 +2127,29 @@ const file_foldbound_v1_service_proto_rawDesc = "" +
 	"\x04band\x18\x03 \x01(\x01R\x04band\x12<\n" +
 	"\n" +
 	"convention\x18\x04 \x01(\v2\x1c.foldbound.v1.ConventionUsedR\n" +
-	"convention\"\xd1\x03\n" +
+	"convention\"\xe0\x02\n" +
+	"\x11PlanKernelRequest\x12\x14\n" +
+	"\x05modes\x18\x01 \x01(\x03R\x05modes\x12\x10\n" +
+	"\x03dim\x18\x02 \x01(\x05R\x03dim\x12\x10\n" +
+	"\x03tol\x18\x03 \x01(\x01R\x03tol\x12/\n" +
+	"\x05shape\x18\x04 \x01(\x0e2\x19.foldbound.v1.KernelShapeR\x05shape\x12\"\n" +
+	"\foversampling\x18\x05 \x03(\x01R\foversampling\x12\x16\n" +
+	"\x06points\x18\x06 \x01(\x01R\x06points\x12\x1f\n" +
+	"\vspread_cost\x18\a \x01(\x01R\n" +
+	"spreadCost\x12\x19\n" +
+	"\bfft_cost\x18\b \x01(\x01R\afftCost\x12\"\n" +
+	"\rany_grid_size\x18\t \x01(\bR\vanyGridSize\x12#\n" +
+	"\rverify_points\x18\n" +
+	" \x01(\x05R\fverifyPoints\x12\x1f\n" +
+	"\vverify_seed\x18\v \x01(\x04R\n" +
+	"verifySeed\"\xbf\x01\n" +
+	"\x12PlanKernelResponse\x124\n" +
+	"\aoptions\x18\x01 \x03(\v2\x1a.foldbound.v1.KernelOptionR\aoptions\x12\x14\n" +
+	"\x05notes\x18\x02 \x03(\tR\x05notes\x12\x1e\n" +
+	"\n" +
+	"convention\x18\x03 \x01(\tR\n" +
+	"convention\x12=\n" +
+	"\fverification\x18\x04 \x01(\v2\x19.foldbound.v1.KernelCheckR\fverification\"\x95\x04\n" +
 	"\fBatchRequest\x12\x0e\n" +
 	"\x02id\x18\x01 \x01(\tR\x02id\x12<\n" +
 	"\talias_sum\x18\x02 \x01(\v2\x1d.foldbound.v1.AliasSumRequestH\x00R\baliasSum\x12E\n" +
@@ -1883,8 +2157,10 @@ const file_foldbound_v1_service_proto_rawDesc = "" +
 	"\tplan_grid\x18\x04 \x01(\v2\x1d.foldbound.v1.PlanGridRequestH\x00R\bplanGrid\x12<\n" +
 	"\tplan_scan\x18\x05 \x01(\v2\x1d.foldbound.v1.PlanScanRequestH\x00R\bplanScan\x12R\n" +
 	"\x11lattice_alias_sum\x18\x06 \x01(\v2$.foldbound.v1.LatticeAliasSumRequestH\x00R\x0flatticeAliasSum\x12Q\n" +
-	"\x10compare_lattices\x18\a \x01(\v2$.foldbound.v1.CompareLatticesRequestH\x00R\x0fcompareLatticesB\t\n" +
-	"\arequest\"\x88\x04\n" +
+	"\x10compare_lattices\x18\a \x01(\v2$.foldbound.v1.CompareLatticesRequestH\x00R\x0fcompareLattices\x12B\n" +
+	"\vplan_kernel\x18\b \x01(\v2\x1f.foldbound.v1.PlanKernelRequestH\x00R\n" +
+	"planKernelB\t\n" +
+	"\arequest\"\xcd\x04\n" +
 	"\rBatchResponse\x12\x0e\n" +
 	"\x02id\x18\x01 \x01(\tR\x02id\x12=\n" +
 	"\talias_sum\x18\x02 \x01(\v2\x1e.foldbound.v1.AliasSumResponseH\x00R\baliasSum\x12F\n" +
@@ -1892,7 +2168,9 @@ const file_foldbound_v1_service_proto_rawDesc = "" +
 	"\tplan_grid\x18\x04 \x01(\v2\x1e.foldbound.v1.PlanGridResponseH\x00R\bplanGrid\x12=\n" +
 	"\tplan_scan\x18\x05 \x01(\v2\x1e.foldbound.v1.PlanScanResponseH\x00R\bplanScan\x12S\n" +
 	"\x11lattice_alias_sum\x18\x06 \x01(\v2%.foldbound.v1.LatticeAliasSumResponseH\x00R\x0flatticeAliasSum\x12R\n" +
-	"\x10compare_lattices\x18\a \x01(\v2%.foldbound.v1.CompareLatticesResponseH\x00R\x0fcompareLattices\x12/\n" +
+	"\x10compare_lattices\x18\a \x01(\v2%.foldbound.v1.CompareLatticesResponseH\x00R\x0fcompareLattices\x12C\n" +
+	"\vplan_kernel\x18\b \x01(\v2 .foldbound.v1.PlanKernelResponseH\x00R\n" +
+	"planKernel\x12/\n" +
 	"\x05error\x18\x0f \x01(\v2\x17.foldbound.v1.ItemErrorH\x00R\x05errorB\b\n" +
 	"\x06result\"\x82\x01\n" +
 	"\tItemError\x12\x12\n" +
@@ -1901,14 +2179,16 @@ const file_foldbound_v1_service_proto_rawDesc = "" +
 	"\x10field_violations\x18\x03 \x03(\v2\x1c.foldbound.v1.FieldViolationR\x0ffieldViolations\"H\n" +
 	"\x0eFieldViolation\x12\x14\n" +
 	"\x05field\x18\x01 \x01(\tR\x05field\x12 \n" +
-	"\vdescription\x18\x02 \x01(\tR\vdescription2\xcc\x04\n" +
+	"\vdescription\x18\x02 \x01(\tR\vdescription2\x9d\x05\n" +
 	"\x0fSamplingService\x12I\n" +
 	"\bAliasSum\x12\x1d.foldbound.v1.AliasSumRequest\x1a\x1e.foldbound.v1.AliasSumResponse\x12R\n" +
 	"\vErrorBudget\x12 .foldbound.v1.ErrorBudgetRequest\x1a!.foldbound.v1.ErrorBudgetResponse\x12I\n" +
 	"\bPlanGrid\x12\x1d.foldbound.v1.PlanGridRequest\x1a\x1e.foldbound.v1.PlanGridResponse\x12I\n" +
 	"\bPlanScan\x12\x1d.foldbound.v1.PlanScanRequest\x1a\x1e.foldbound.v1.PlanScanResponse\x12^\n" +
 	"\x0fLatticeAliasSum\x12$.foldbound.v1.LatticeAliasSumRequest\x1a%.foldbound.v1.LatticeAliasSumResponse\x12^\n" +
-	"\x0fCompareLattices\x12$.foldbound.v1.CompareLatticesRequest\x1a%.foldbound.v1.CompareLatticesResponse\x12D\n" +
+	"\x0fCompareLattices\x12$.foldbound.v1.CompareLatticesRequest\x1a%.foldbound.v1.CompareLatticesResponse\x12O\n" +
+	"\n" +
+	"PlanKernel\x12\x1f.foldbound.v1.PlanKernelRequest\x1a .foldbound.v1.PlanKernelResponse\x12D\n" +
 	"\x05Batch\x12\x1a.foldbound.v1.BatchRequest\x1a\x1b.foldbound.v1.BatchResponse(\x010\x01B(Z&foldbound/api/foldbound/v1;foldboundv1b\x06proto3"
 
 var (
@@ -1923,7 +2203,7 @@ func file_foldbound_v1_service_proto_rawDescGZIP() []byte {
 	return file_foldbound_v1_service_proto_rawDescData
 }
 
-var file_foldbound_v1_service_proto_msgTypes = make([]protoimpl.MessageInfo, 16)
+var file_foldbound_v1_service_proto_msgTypes = make([]protoimpl.MessageInfo, 18)
 var file_foldbound_v1_service_proto_goTypes = []any{
 	(*AliasSumRequest)(nil),         // 0: foldbound.v1.AliasSumRequest
 	(*AliasSumResponse)(nil),        // 1: foldbound.v1.AliasSumResponse
@@ -1937,114 +2217,126 @@ var file_foldbound_v1_service_proto_goTypes = []any{
 	(*LatticeAliasSumResponse)(nil), // 9: foldbound.v1.LatticeAliasSumResponse
 	(*CompareLatticesRequest)(nil),  // 10: foldbound.v1.CompareLatticesRequest
 	(*CompareLatticesResponse)(nil), // 11: foldbound.v1.CompareLatticesResponse
-	(*BatchRequest)(nil),            // 12: foldbound.v1.BatchRequest
-	(*BatchResponse)(nil),           // 13: foldbound.v1.BatchResponse
-	(*ItemError)(nil),               // 14: foldbound.v1.ItemError
-	(*FieldViolation)(nil),          // 15: foldbound.v1.FieldViolation
-	(*Family)(nil),                  // 16: foldbound.v1.Family
-	(*Grid)(nil),                    // 17: foldbound.v1.Grid
-	(Convention)(0),                 // 18: foldbound.v1.Convention
-	(*Settings)(nil),                // 19: foldbound.v1.Settings
-	(*ComplexInterval)(nil),         // 20: foldbound.v1.ComplexInterval
-	(*Method)(nil),                  // 21: foldbound.v1.Method
-	(*ConventionUsed)(nil),          // 22: foldbound.v1.ConventionUsed
-	(*Envelopes)(nil),               // 23: foldbound.v1.Envelopes
-	(*Band)(nil),                    // 24: foldbound.v1.Band
-	(*ErrorBudget)(nil),             // 25: foldbound.v1.ErrorBudget
-	(*CostModel)(nil),               // 26: foldbound.v1.CostModel
-	(*PlannedAxis)(nil),             // 27: foldbound.v1.PlannedAxis
-	(*Verification)(nil),            // 28: foldbound.v1.Verification
-	(ScanGeometry)(0),               // 29: foldbound.v1.ScanGeometry
-	(*ScanPlan)(nil),                // 30: foldbound.v1.ScanPlan
-	(*Lattice)(nil),                 // 31: foldbound.v1.Lattice
-	(*LatticeMethod)(nil),           // 32: foldbound.v1.LatticeMethod
-	(*LatticeInfo)(nil),             // 33: foldbound.v1.LatticeInfo
-	(*EnvelopeTerm)(nil),            // 34: foldbound.v1.EnvelopeTerm
-	(*LatticePlan)(nil),             // 35: foldbound.v1.LatticePlan
+	(*PlanKernelRequest)(nil),       // 12: foldbound.v1.PlanKernelRequest
+	(*PlanKernelResponse)(nil),      // 13: foldbound.v1.PlanKernelResponse
+	(*BatchRequest)(nil),            // 14: foldbound.v1.BatchRequest
+	(*BatchResponse)(nil),           // 15: foldbound.v1.BatchResponse
+	(*ItemError)(nil),               // 16: foldbound.v1.ItemError
+	(*FieldViolation)(nil),          // 17: foldbound.v1.FieldViolation
+	(*Family)(nil),                  // 18: foldbound.v1.Family
+	(*Grid)(nil),                    // 19: foldbound.v1.Grid
+	(Convention)(0),                 // 20: foldbound.v1.Convention
+	(*Settings)(nil),                // 21: foldbound.v1.Settings
+	(*ComplexInterval)(nil),         // 22: foldbound.v1.ComplexInterval
+	(*Method)(nil),                  // 23: foldbound.v1.Method
+	(*ConventionUsed)(nil),          // 24: foldbound.v1.ConventionUsed
+	(*Envelopes)(nil),               // 25: foldbound.v1.Envelopes
+	(*Band)(nil),                    // 26: foldbound.v1.Band
+	(*ErrorBudget)(nil),             // 27: foldbound.v1.ErrorBudget
+	(*CostModel)(nil),               // 28: foldbound.v1.CostModel
+	(*PlannedAxis)(nil),             // 29: foldbound.v1.PlannedAxis
+	(*Verification)(nil),            // 30: foldbound.v1.Verification
+	(ScanGeometry)(0),               // 31: foldbound.v1.ScanGeometry
+	(*ScanPlan)(nil),                // 32: foldbound.v1.ScanPlan
+	(*Lattice)(nil),                 // 33: foldbound.v1.Lattice
+	(*LatticeMethod)(nil),           // 34: foldbound.v1.LatticeMethod
+	(*LatticeInfo)(nil),             // 35: foldbound.v1.LatticeInfo
+	(*EnvelopeTerm)(nil),            // 36: foldbound.v1.EnvelopeTerm
+	(*LatticePlan)(nil),             // 37: foldbound.v1.LatticePlan
+	(KernelShape)(0),                // 38: foldbound.v1.KernelShape
+	(*KernelOption)(nil),            // 39: foldbound.v1.KernelOption
+	(*KernelCheck)(nil),             // 40: foldbound.v1.KernelCheck
 }
 var file_foldbound_v1_service_proto_depIdxs = []int32{
-	16, // 0: foldbound.v1.AliasSumRequest.family:type_name -> foldbound.v1.Family
-	17, // 1: foldbound.v1.AliasSumRequest.grids:type_name -> foldbound.v1.Grid
-	18, // 2: foldbound.v1.AliasSumRequest.convention:type_name -> foldbound.v1.Convention
-	19, // 3: foldbound.v1.AliasSumRequest.settings:type_name -> foldbound.v1.Settings
-	20, // 4: foldbound.v1.AliasSumResponse.sampled:type_name -> foldbound.v1.ComplexInterval
-	20, // 5: foldbound.v1.AliasSumResponse.exact:type_name -> foldbound.v1.ComplexInterval
-	20, // 6: foldbound.v1.AliasSumResponse.error:type_name -> foldbound.v1.ComplexInterval
-	20, // 7: foldbound.v1.AliasSumResponse.alias:type_name -> foldbound.v1.ComplexInterval
-	20, // 8: foldbound.v1.AliasSumResponse.truncation:type_name -> foldbound.v1.ComplexInterval
-	21, // 9: foldbound.v1.AliasSumResponse.method:type_name -> foldbound.v1.Method
-	22, // 10: foldbound.v1.AliasSumResponse.convention:type_name -> foldbound.v1.ConventionUsed
-	16, // 11: foldbound.v1.ErrorBudgetRequest.family:type_name -> foldbound.v1.Family
-	23, // 12: foldbound.v1.ErrorBudgetRequest.envelopes:type_name -> foldbound.v1.Envelopes
-	17, // 13: foldbound.v1.ErrorBudgetRequest.grids:type_name -> foldbound.v1.Grid
-	24, // 14: foldbound.v1.ErrorBudgetRequest.frequency:type_name -> foldbound.v1.Band
-	18, // 15: foldbound.v1.ErrorBudgetRequest.convention:type_name -> foldbound.v1.Convention
-	19, // 16: foldbound.v1.ErrorBudgetRequest.settings:type_name -> foldbound.v1.Settings
-	25, // 17: foldbound.v1.ErrorBudgetResponse.budget:type_name -> foldbound.v1.ErrorBudget
-	22, // 18: foldbound.v1.ErrorBudgetResponse.convention:type_name -> foldbound.v1.ConventionUsed
-	24, // 19: foldbound.v1.ErrorBudgetResponse.frequency:type_name -> foldbound.v1.Band
-	16, // 20: foldbound.v1.PlanGridRequest.family:type_name -> foldbound.v1.Family
-	23, // 21: foldbound.v1.PlanGridRequest.envelopes:type_name -> foldbound.v1.Envelopes
-	24, // 22: foldbound.v1.PlanGridRequest.frequency:type_name -> foldbound.v1.Band
-	26, // 23: foldbound.v1.PlanGridRequest.cost:type_name -> foldbound.v1.CostModel
-	18, // 24: foldbound.v1.PlanGridRequest.convention:type_name -> foldbound.v1.Convention
-	19, // 25: foldbound.v1.PlanGridRequest.settings:type_name -> foldbound.v1.Settings
-	27, // 26: foldbound.v1.PlanGridResponse.axes:type_name -> foldbound.v1.PlannedAxis
-	25, // 27: foldbound.v1.PlanGridResponse.budget:type_name -> foldbound.v1.ErrorBudget
-	28, // 28: foldbound.v1.PlanGridResponse.verification:type_name -> foldbound.v1.Verification
-	22, // 29: foldbound.v1.PlanGridResponse.convention:type_name -> foldbound.v1.ConventionUsed
-	29, // 30: foldbound.v1.PlanScanRequest.geometry:type_name -> foldbound.v1.ScanGeometry
-	30, // 31: foldbound.v1.PlanScanResponse.plan:type_name -> foldbound.v1.ScanPlan
-	16, // 32: foldbound.v1.LatticeAliasSumRequest.family:type_name -> foldbound.v1.Family
-	31, // 33: foldbound.v1.LatticeAliasSumRequest.lattice:type_name -> foldbound.v1.Lattice
-	18, // 34: foldbound.v1.LatticeAliasSumRequest.convention:type_name -> foldbound.v1.Convention
-	19, // 35: foldbound.v1.LatticeAliasSumRequest.settings:type_name -> foldbound.v1.Settings
-	20, // 36: foldbound.v1.LatticeAliasSumResponse.sampled:type_name -> foldbound.v1.ComplexInterval
-	20, // 37: foldbound.v1.LatticeAliasSumResponse.exact:type_name -> foldbound.v1.ComplexInterval
-	20, // 38: foldbound.v1.LatticeAliasSumResponse.alias:type_name -> foldbound.v1.ComplexInterval
-	32, // 39: foldbound.v1.LatticeAliasSumResponse.method:type_name -> foldbound.v1.LatticeMethod
-	22, // 40: foldbound.v1.LatticeAliasSumResponse.convention:type_name -> foldbound.v1.ConventionUsed
-	33, // 41: foldbound.v1.LatticeAliasSumResponse.lattice:type_name -> foldbound.v1.LatticeInfo
-	34, // 42: foldbound.v1.CompareLatticesRequest.spectral:type_name -> foldbound.v1.EnvelopeTerm
-	31, // 43: foldbound.v1.CompareLatticesRequest.candidates:type_name -> foldbound.v1.Lattice
-	18, // 44: foldbound.v1.CompareLatticesRequest.convention:type_name -> foldbound.v1.Convention
-	19, // 45: foldbound.v1.CompareLatticesRequest.settings:type_name -> foldbound.v1.Settings
-	35, // 46: foldbound.v1.CompareLatticesResponse.reference:type_name -> foldbound.v1.LatticePlan
-	35, // 47: foldbound.v1.CompareLatticesResponse.plans:type_name -> foldbound.v1.LatticePlan
-	22, // 48: foldbound.v1.CompareLatticesResponse.convention:type_name -> foldbound.v1.ConventionUsed
-	0,  // 49: foldbound.v1.BatchRequest.alias_sum:type_name -> foldbound.v1.AliasSumRequest
-	2,  // 50: foldbound.v1.BatchRequest.error_budget:type_name -> foldbound.v1.ErrorBudgetRequest
-	4,  // 51: foldbound.v1.BatchRequest.plan_grid:type_name -> foldbound.v1.PlanGridRequest
-	6,  // 52: foldbound.v1.BatchRequest.plan_scan:type_name -> foldbound.v1.PlanScanRequest
-	8,  // 53: foldbound.v1.BatchRequest.lattice_alias_sum:type_name -> foldbound.v1.LatticeAliasSumRequest
-	10, // 54: foldbound.v1.BatchRequest.compare_lattices:type_name -> foldbound.v1.CompareLatticesRequest
-	1,  // 55: foldbound.v1.BatchResponse.alias_sum:type_name -> foldbound.v1.AliasSumResponse
-	3,  // 56: foldbound.v1.BatchResponse.error_budget:type_name -> foldbound.v1.ErrorBudgetResponse
-	5,  // 57: foldbound.v1.BatchResponse.plan_grid:type_name -> foldbound.v1.PlanGridResponse
-	7,  // 58: foldbound.v1.BatchResponse.plan_scan:type_name -> foldbound.v1.PlanScanResponse
-	9,  // 59: foldbound.v1.BatchResponse.lattice_alias_sum:type_name -> foldbound.v1.LatticeAliasSumResponse
-	11, // 60: foldbound.v1.BatchResponse.compare_lattices:type_name -> foldbound.v1.CompareLatticesResponse
-	14, // 61: foldbound.v1.BatchResponse.error:type_name -> foldbound.v1.ItemError
-	15, // 62: foldbound.v1.ItemError.field_violations:type_name -> foldbound.v1.FieldViolation
-	0,  // 63: foldbound.v1.SamplingService.AliasSum:input_type -> foldbound.v1.AliasSumRequest
-	2,  // 64: foldbound.v1.SamplingService.ErrorBudget:input_type -> foldbound.v1.ErrorBudgetRequest
-	4,  // 65: foldbound.v1.SamplingService.PlanGrid:input_type -> foldbound.v1.PlanGridRequest
-	6,  // 66: foldbound.v1.SamplingService.PlanScan:input_type -> foldbound.v1.PlanScanRequest
-	8,  // 67: foldbound.v1.SamplingService.LatticeAliasSum:input_type -> foldbound.v1.LatticeAliasSumRequest
-	10, // 68: foldbound.v1.SamplingService.CompareLattices:input_type -> foldbound.v1.CompareLatticesRequest
-	12, // 69: foldbound.v1.SamplingService.Batch:input_type -> foldbound.v1.BatchRequest
-	1,  // 70: foldbound.v1.SamplingService.AliasSum:output_type -> foldbound.v1.AliasSumResponse
-	3,  // 71: foldbound.v1.SamplingService.ErrorBudget:output_type -> foldbound.v1.ErrorBudgetResponse
-	5,  // 72: foldbound.v1.SamplingService.PlanGrid:output_type -> foldbound.v1.PlanGridResponse
-	7,  // 73: foldbound.v1.SamplingService.PlanScan:output_type -> foldbound.v1.PlanScanResponse
-	9,  // 74: foldbound.v1.SamplingService.LatticeAliasSum:output_type -> foldbound.v1.LatticeAliasSumResponse
-	11, // 75: foldbound.v1.SamplingService.CompareLattices:output_type -> foldbound.v1.CompareLatticesResponse
-	13, // 76: foldbound.v1.SamplingService.Batch:output_type -> foldbound.v1.BatchResponse
-	70, // [70:77] is the sub-list for method output_type
-	63, // [63:70] is the sub-list for method input_type
-	63, // [63:63] is the sub-list for extension type_name
-	63, // [63:63] is the sub-list for extension extendee
-	0,  // [0:63] is the sub-list for field type_name
+	18, // 0: foldbound.v1.AliasSumRequest.family:type_name -> foldbound.v1.Family
+	19, // 1: foldbound.v1.AliasSumRequest.grids:type_name -> foldbound.v1.Grid
+	20, // 2: foldbound.v1.AliasSumRequest.convention:type_name -> foldbound.v1.Convention
+	21, // 3: foldbound.v1.AliasSumRequest.settings:type_name -> foldbound.v1.Settings
+	22, // 4: foldbound.v1.AliasSumResponse.sampled:type_name -> foldbound.v1.ComplexInterval
+	22, // 5: foldbound.v1.AliasSumResponse.exact:type_name -> foldbound.v1.ComplexInterval
+	22, // 6: foldbound.v1.AliasSumResponse.error:type_name -> foldbound.v1.ComplexInterval
+	22, // 7: foldbound.v1.AliasSumResponse.alias:type_name -> foldbound.v1.ComplexInterval
+	22, // 8: foldbound.v1.AliasSumResponse.truncation:type_name -> foldbound.v1.ComplexInterval
+	23, // 9: foldbound.v1.AliasSumResponse.method:type_name -> foldbound.v1.Method
+	24, // 10: foldbound.v1.AliasSumResponse.convention:type_name -> foldbound.v1.ConventionUsed
+	18, // 11: foldbound.v1.ErrorBudgetRequest.family:type_name -> foldbound.v1.Family
+	25, // 12: foldbound.v1.ErrorBudgetRequest.envelopes:type_name -> foldbound.v1.Envelopes
+	19, // 13: foldbound.v1.ErrorBudgetRequest.grids:type_name -> foldbound.v1.Grid
+	26, // 14: foldbound.v1.ErrorBudgetRequest.frequency:type_name -> foldbound.v1.Band
+	20, // 15: foldbound.v1.ErrorBudgetRequest.convention:type_name -> foldbound.v1.Convention
+	21, // 16: foldbound.v1.ErrorBudgetRequest.settings:type_name -> foldbound.v1.Settings
+	27, // 17: foldbound.v1.ErrorBudgetResponse.budget:type_name -> foldbound.v1.ErrorBudget
+	24, // 18: foldbound.v1.ErrorBudgetResponse.convention:type_name -> foldbound.v1.ConventionUsed
+	26, // 19: foldbound.v1.ErrorBudgetResponse.frequency:type_name -> foldbound.v1.Band
+	18, // 20: foldbound.v1.PlanGridRequest.family:type_name -> foldbound.v1.Family
+	25, // 21: foldbound.v1.PlanGridRequest.envelopes:type_name -> foldbound.v1.Envelopes
+	26, // 22: foldbound.v1.PlanGridRequest.frequency:type_name -> foldbound.v1.Band
+	28, // 23: foldbound.v1.PlanGridRequest.cost:type_name -> foldbound.v1.CostModel
+	20, // 24: foldbound.v1.PlanGridRequest.convention:type_name -> foldbound.v1.Convention
+	21, // 25: foldbound.v1.PlanGridRequest.settings:type_name -> foldbound.v1.Settings
+	29, // 26: foldbound.v1.PlanGridResponse.axes:type_name -> foldbound.v1.PlannedAxis
+	27, // 27: foldbound.v1.PlanGridResponse.budget:type_name -> foldbound.v1.ErrorBudget
+	30, // 28: foldbound.v1.PlanGridResponse.verification:type_name -> foldbound.v1.Verification
+	24, // 29: foldbound.v1.PlanGridResponse.convention:type_name -> foldbound.v1.ConventionUsed
+	31, // 30: foldbound.v1.PlanScanRequest.geometry:type_name -> foldbound.v1.ScanGeometry
+	32, // 31: foldbound.v1.PlanScanResponse.plan:type_name -> foldbound.v1.ScanPlan
+	18, // 32: foldbound.v1.LatticeAliasSumRequest.family:type_name -> foldbound.v1.Family
+	33, // 33: foldbound.v1.LatticeAliasSumRequest.lattice:type_name -> foldbound.v1.Lattice
+	20, // 34: foldbound.v1.LatticeAliasSumRequest.convention:type_name -> foldbound.v1.Convention
+	21, // 35: foldbound.v1.LatticeAliasSumRequest.settings:type_name -> foldbound.v1.Settings
+	22, // 36: foldbound.v1.LatticeAliasSumResponse.sampled:type_name -> foldbound.v1.ComplexInterval
+	22, // 37: foldbound.v1.LatticeAliasSumResponse.exact:type_name -> foldbound.v1.ComplexInterval
+	22, // 38: foldbound.v1.LatticeAliasSumResponse.alias:type_name -> foldbound.v1.ComplexInterval
+	34, // 39: foldbound.v1.LatticeAliasSumResponse.method:type_name -> foldbound.v1.LatticeMethod
+	24, // 40: foldbound.v1.LatticeAliasSumResponse.convention:type_name -> foldbound.v1.ConventionUsed
+	35, // 41: foldbound.v1.LatticeAliasSumResponse.lattice:type_name -> foldbound.v1.LatticeInfo
+	36, // 42: foldbound.v1.CompareLatticesRequest.spectral:type_name -> foldbound.v1.EnvelopeTerm
+	33, // 43: foldbound.v1.CompareLatticesRequest.candidates:type_name -> foldbound.v1.Lattice
+	20, // 44: foldbound.v1.CompareLatticesRequest.convention:type_name -> foldbound.v1.Convention
+	21, // 45: foldbound.v1.CompareLatticesRequest.settings:type_name -> foldbound.v1.Settings
+	37, // 46: foldbound.v1.CompareLatticesResponse.reference:type_name -> foldbound.v1.LatticePlan
+	37, // 47: foldbound.v1.CompareLatticesResponse.plans:type_name -> foldbound.v1.LatticePlan
+	24, // 48: foldbound.v1.CompareLatticesResponse.convention:type_name -> foldbound.v1.ConventionUsed
+	38, // 49: foldbound.v1.PlanKernelRequest.shape:type_name -> foldbound.v1.KernelShape
+	39, // 50: foldbound.v1.PlanKernelResponse.options:type_name -> foldbound.v1.KernelOption
+	40, // 51: foldbound.v1.PlanKernelResponse.verification:type_name -> foldbound.v1.KernelCheck
+	0,  // 52: foldbound.v1.BatchRequest.alias_sum:type_name -> foldbound.v1.AliasSumRequest
+	2,  // 53: foldbound.v1.BatchRequest.error_budget:type_name -> foldbound.v1.ErrorBudgetRequest
+	4,  // 54: foldbound.v1.BatchRequest.plan_grid:type_name -> foldbound.v1.PlanGridRequest
+	6,  // 55: foldbound.v1.BatchRequest.plan_scan:type_name -> foldbound.v1.PlanScanRequest
+	8,  // 56: foldbound.v1.BatchRequest.lattice_alias_sum:type_name -> foldbound.v1.LatticeAliasSumRequest
+	10, // 57: foldbound.v1.BatchRequest.compare_lattices:type_name -> foldbound.v1.CompareLatticesRequest
+	12, // 58: foldbound.v1.BatchRequest.plan_kernel:type_name -> foldbound.v1.PlanKernelRequest
+	1,  // 59: foldbound.v1.BatchResponse.alias_sum:type_name -> foldbound.v1.AliasSumResponse
+	3,  // 60: foldbound.v1.BatchResponse.error_budget:type_name -> foldbound.v1.ErrorBudgetResponse
+	5,  // 61: foldbound.v1.BatchResponse.plan_grid:type_name -> foldbound.v1.PlanGridResponse
+	7,  // 62: foldbound.v1.BatchResponse.plan_scan:type_name -> foldbound.v1.PlanScanResponse
+	9,  // 63: foldbound.v1.BatchResponse.lattice_alias_sum:type_name -> foldbound.v1.LatticeAliasSumResponse
+	11, // 64: foldbound.v1.BatchResponse.compare_lattices:type_name -> foldbound.v1.CompareLatticesResponse
+	13, // 65: foldbound.v1.BatchResponse.plan_kernel:type_name -> foldbound.v1.PlanKernelResponse
+	16, // 66: foldbound.v1.BatchResponse.error:type_name -> foldbound.v1.ItemError
+	17, // 67: foldbound.v1.ItemError.field_violations:type_name -> foldbound.v1.FieldViolation
+	0,  // 68: foldbound.v1.SamplingService.AliasSum:input_type -> foldbound.v1.AliasSumRequest
+	2,  // 69: foldbound.v1.SamplingService.ErrorBudget:input_type -> foldbound.v1.ErrorBudgetRequest
+	4,  // 70: foldbound.v1.SamplingService.PlanGrid:input_type -> foldbound.v1.PlanGridRequest
+	6,  // 71: foldbound.v1.SamplingService.PlanScan:input_type -> foldbound.v1.PlanScanRequest
+	8,  // 72: foldbound.v1.SamplingService.LatticeAliasSum:input_type -> foldbound.v1.LatticeAliasSumRequest
+	10, // 73: foldbound.v1.SamplingService.CompareLattices:input_type -> foldbound.v1.CompareLatticesRequest
+	12, // 74: foldbound.v1.SamplingService.PlanKernel:input_type -> foldbound.v1.PlanKernelRequest
+	14, // 75: foldbound.v1.SamplingService.Batch:input_type -> foldbound.v1.BatchRequest
+	1,  // 76: foldbound.v1.SamplingService.AliasSum:output_type -> foldbound.v1.AliasSumResponse
+	3,  // 77: foldbound.v1.SamplingService.ErrorBudget:output_type -> foldbound.v1.ErrorBudgetResponse
+	5,  // 78: foldbound.v1.SamplingService.PlanGrid:output_type -> foldbound.v1.PlanGridResponse
+	7,  // 79: foldbound.v1.SamplingService.PlanScan:output_type -> foldbound.v1.PlanScanResponse
+	9,  // 80: foldbound.v1.SamplingService.LatticeAliasSum:output_type -> foldbound.v1.LatticeAliasSumResponse
+	11, // 81: foldbound.v1.SamplingService.CompareLattices:output_type -> foldbound.v1.CompareLatticesResponse
+	13, // 82: foldbound.v1.SamplingService.PlanKernel:output_type -> foldbound.v1.PlanKernelResponse
+	15, // 83: foldbound.v1.SamplingService.Batch:output_type -> foldbound.v1.BatchResponse
+	76, // [76:84] is the sub-list for method output_type
+	68, // [68:76] is the sub-list for method input_type
+	68, // [68:68] is the sub-list for extension type_name
+	68, // [68:68] is the sub-list for extension extendee
+	0,  // [0:68] is the sub-list for field type_name
 }
 
 func init() { file_foldbound_v1_service_proto_init() }
@@ -2057,6 +2349,7 @@ func file_foldbound_v1_service_proto_init() {
 	file_foldbound_v1_envelope_proto_init()
 	file_foldbound_v1_family_proto_init()
 	file_foldbound_v1_grid_proto_init()
+	file_foldbound_v1_gridding_proto_init()
 	file_foldbound_v1_lattice_proto_init()
 	file_foldbound_v1_numbers_proto_init()
 	file_foldbound_v1_plan_proto_init()
@@ -2069,21 +2362,23 @@ func file_foldbound_v1_service_proto_init() {
 		(*PlanGridRequest_Family)(nil),
 		(*PlanGridRequest_Envelopes)(nil),
 	}
-	file_foldbound_v1_service_proto_msgTypes[12].OneofWrappers = []any{
+	file_foldbound_v1_service_proto_msgTypes[14].OneofWrappers = []any{
 		(*BatchRequest_AliasSum)(nil),
 		(*BatchRequest_ErrorBudget)(nil),
 		(*BatchRequest_PlanGrid)(nil),
 		(*BatchRequest_PlanScan)(nil),
 		(*BatchRequest_LatticeAliasSum)(nil),
 		(*BatchRequest_CompareLattices)(nil),
+		(*BatchRequest_PlanKernel)(nil),
 	}
-	file_foldbound_v1_service_proto_msgTypes[13].OneofWrappers = []any{
+	file_foldbound_v1_service_proto_msgTypes[15].OneofWrappers = []any{
 		(*BatchResponse_AliasSum)(nil),
 		(*BatchResponse_ErrorBudget)(nil),
 		(*BatchResponse_PlanGrid)(nil),
 		(*BatchResponse_PlanScan)(nil),
 		(*BatchResponse_LatticeAliasSum)(nil),
 		(*BatchResponse_CompareLattices)(nil),
+		(*BatchResponse_PlanKernel)(nil),
 		(*BatchResponse_Error)(nil),
 	}
 	type x struct{}
@@ -2092,7 +2387,7 @@ func file_foldbound_v1_service_proto_init() {
 			GoPackagePath: reflect.TypeOf(x{}).PkgPath(),
 			RawDescriptor: unsafe.Slice(unsafe.StringData(file_foldbound_v1_service_proto_rawDesc), len(file_foldbound_v1_service_proto_rawDesc)),
 			NumEnums:      0,
-			NumMessages:   16,
+			NumMessages:   18,
 			NumExtensions: 0,
 			NumServices:   1,
 		},

@@ -25,6 +25,7 @@ const (
 	SamplingService_PlanScan_FullMethodName        = "/foldbound.v1.SamplingService/PlanScan"
 	SamplingService_LatticeAliasSum_FullMethodName = "/foldbound.v1.SamplingService/LatticeAliasSum"
 	SamplingService_CompareLattices_FullMethodName = "/foldbound.v1.SamplingService/CompareLattices"
+	SamplingService_PlanKernel_FullMethodName      = "/foldbound.v1.SamplingService/PlanKernel"
 	SamplingService_Batch_FullMethodName           = "/foldbound.v1.SamplingService/Batch"
 )
 
@@ -46,8 +47,8 @@ const (
 // stops when the call's context ends), UNIMPLEMENTED (a call this server
 // version cannot answer yet), INTERNAL (a bug; logged).
 //
-// Further questions (e.g. gridding-kernel plans) will be added as further
-// rpcs and as further request kinds of Batch.
+// Further questions will be added as further rpcs and as further request
+// kinds of Batch.
 type SamplingServiceClient interface {
 	// AliasSum computes the sampled sum T of a family on a grid at one
 	// frequency, the exact transform F, and the error T - F split into its
@@ -79,6 +80,12 @@ type SamplingServiceClient interface {
 	// the tolerance, and ranks them by samples per unit volume, with the
 	// saving against the rectangular grid.
 	CompareLattices(ctx context.Context, in *CompareLatticesRequest, opts ...grpc.CallOption) (*CompareLatticesResponse, error)
+	// PlanKernel returns, for each candidate oversampling ratio of a
+	// non-uniform FFT, the smallest gridding-kernel width whose certified
+	// kernel error meets a tolerance, with its best shape, and recommends the
+	// cheapest by a cost model; optionally it verifies the recommendation
+	// against the directly summed non-uniform DFT.
+	PlanKernel(ctx context.Context, in *PlanKernelRequest, opts ...grpc.CallOption) (*PlanKernelResponse, error)
 	// Batch answers many requests over one stream. Each item carries an id
 	// chosen by the caller; each response carries the same id and either a
 	// result or an error. Responses may arrive in any order. A stream that
@@ -158,6 +165,16 @@ func (c *samplingServiceClient) CompareLattices(ctx context.Context, in *Compare
 	return out, nil
 }
 
+func (c *samplingServiceClient) PlanKernel(ctx context.Context, in *PlanKernelRequest, opts ...grpc.CallOption) (*PlanKernelResponse, error) {
+	cOpts := append([]grpc.CallOption{grpc.StaticMethod()}, opts...)
+	out := new(PlanKernelResponse)
+	err := c.cc.Invoke(ctx, SamplingService_PlanKernel_FullMethodName, in, out, cOpts...)
+	if err != nil {
+		return nil, err
+	}
+	return out, nil
+}
+
 func (c *samplingServiceClient) Batch(ctx context.Context, opts ...grpc.CallOption) (grpc.BidiStreamingClient[BatchRequest, BatchResponse], error) {
 	cOpts := append([]grpc.CallOption{grpc.StaticMethod()}, opts...)
 	stream, err := c.cc.NewStream(ctx, &SamplingService_ServiceDesc.Streams[0], SamplingService_Batch_FullMethodName, cOpts...)
@@ -189,8 +206,8 @@ type SamplingService_BatchClient = grpc.BidiStreamingClient[BatchRequest, BatchR
 // stops when the call's context ends), UNIMPLEMENTED (a call this server
 // version cannot answer yet), INTERNAL (a bug; logged).
 //
-// Further questions (e.g. gridding-kernel plans) will be added as further
-// rpcs and as further request kinds of Batch.
+// Further questions will be added as further rpcs and as further request
+// kinds of Batch.
 type SamplingServiceServer interface {
 	// AliasSum computes the sampled sum T of a family on a grid at one
 	// frequency, the exact transform F, and the error T - F split into its
@@ -222,6 +239,12 @@ type SamplingServiceServer interface {
 	// the tolerance, and ranks them by samples per unit volume, with the
 	// saving against the rectangular grid.
 	CompareLattices(context.Context, *CompareLatticesRequest) (*CompareLatticesResponse, error)
+	// PlanKernel returns, for each candidate oversampling ratio of a
+	// non-uniform FFT, the smallest gridding-kernel width whose certified
+	// kernel error meets a tolerance, with its best shape, and recommends the
+	// cheapest by a cost model; optionally it verifies the recommendation
+	// against the directly summed non-uniform DFT.
+	PlanKernel(context.Context, *PlanKernelRequest) (*PlanKernelResponse, error)
 	// Batch answers many requests over one stream. Each item carries an id
 	// chosen by the caller; each response carries the same id and either a
 	// result or an error. Responses may arrive in any order. A stream that
@@ -258,6 +281,9 @@ func (UnimplementedSamplingServiceServer) LatticeAliasSum(context.Context, *Latt
 }
 func (UnimplementedSamplingServiceServer) CompareLattices(context.Context, *CompareLatticesRequest) (*CompareLatticesResponse, error) {
 	return nil, status.Error(codes.Unimplemented, "method CompareLattices not implemented")
+}
+func (UnimplementedSamplingServiceServer) PlanKernel(context.Context, *PlanKernelRequest) (*PlanKernelResponse, error) {
+	return nil, status.Error(codes.Unimplemented, "method PlanKernel not implemented")
 }
 func (UnimplementedSamplingServiceServer) Batch(grpc.BidiStreamingServer[BatchRequest, BatchResponse]) error {
 	return status.Error(codes.Unimplemented, "method Batch not implemented")
@@ -391,6 +417,24 @@ func _SamplingService_CompareLattices_Handler(srv interface{}, ctx context.Conte
 	return interceptor(ctx, in, info, handler)
 }
 
+func _SamplingService_PlanKernel_Handler(srv interface{}, ctx context.Context, dec func(interface{}) error, interceptor grpc.UnaryServerInterceptor) (interface{}, error) {
+	in := new(PlanKernelRequest)
+	if err := dec(in); err != nil {
+		return nil, err
+	}
+	if interceptor == nil {
+		return srv.(SamplingServiceServer).PlanKernel(ctx, in)
+	}
+	info := &grpc.UnaryServerInfo{
+		Server:     srv,
+		FullMethod: SamplingService_PlanKernel_FullMethodName,
+	}
+	handler := func(ctx context.Context, req interface{}) (interface{}, error) {
+		return srv.(SamplingServiceServer).PlanKernel(ctx, req.(*PlanKernelRequest))
+	}
+	return interceptor(ctx, in, info, handler)
+}
+
 func _SamplingService_Batch_Handler(srv interface{}, stream grpc.ServerStream) error {
 	return srv.(SamplingServiceServer).Batch(&grpc.GenericServerStream[BatchRequest, BatchResponse]{ServerStream: stream})
 }
@@ -428,6 +472,10 @@ var SamplingService_ServiceDesc = grpc.ServiceDesc{
 		{
 			MethodName: "CompareLattices",
 			Handler:    _SamplingService_CompareLattices_Handler,
+		},
+		{
+			MethodName: "PlanKernel",
+			Handler:    _SamplingService_PlanKernel_Handler,
 		},
 	},
 	Streams: []grpc.StreamDesc{
