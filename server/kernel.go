@@ -118,4 +118,3 @@ func kernelPaths(err error) error {
 	}
 	return err
 }
-
