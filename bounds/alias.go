@@ -198,13 +198,27 @@ func (s *aliasSummer) run() (SampledSum, error) {
 		res.Alias = alias
 		res.Method = m
 		if !s.g.Infinite() {
-			trunc, n, rem, err := s.omittedSum(scale)
+			trunc, n, rem, ok, err := s.omittedSum(scale, truncationCap)
 			if err != nil {
 				return res, err
 			}
-			res.Truncation = trunc
 			res.Method.TruncationTerms = n
 			res.Method.Remainder = addUp(res.Method.Remainder, rem)
+			if !ok && s.terms+s.g.Count <= s.set.maxTerms() {
+				// The omitted samples decay too slowly to sum to the goal:
+				// sum the grid itself, so that T and T - F are exact, and
+				// let the truncation part be what the alias part leaves.
+				T, err := s.finiteSum()
+				if err != nil {
+					return res, err
+				}
+				res.Sampled = T
+				res.Error = T.Sub(F)
+				res.Truncation = res.Error.Sub(res.Alias)
+				res.Method.AliasTerms += s.g.Count
+				return res, nil
+			}
+			res.Truncation = trunc
 		}
 		res.Error = res.Alias.Add(res.Truncation)
 		res.Sampled = F.Add(res.Error)
@@ -224,7 +238,7 @@ func (s *aliasSummer) run() (SampledSum, error) {
 		if err != nil {
 			return res, err
 		}
-		trunc, n, rem, err := s.omittedSum(scale)
+		trunc, n, rem, _, err := s.omittedSum(scale, truncationCap)
 		if err != nil {
 			return res, err
 		}
@@ -237,6 +251,10 @@ func (s *aliasSummer) run() (SampledSum, error) {
 	}
 	return res, nil
 }
+
+// truncationCap is how many omitted samples omittedSum sums at most before
+// it settles for the envelope's bound on the rest.
+const truncationCap = 1 << 14
 
 // autoSpectralCopies is how many alias copies on each side AliasSum tries
 // before it estimates which side of the Poisson formula is cheaper.
@@ -327,7 +345,6 @@ func (s *aliasSummer) spectralAlias(P Interval, F Complex, limit int64) (Complex
 	// an accurate phase.
 	u := s.shift.Div(Point(s.g.Step))
 	u = u.AddFloat(-math.Round(u.Mid()))
-	theta := TwoPi.Mul(u)
 	zeroShift := u.Lo == 0 && u.Hi == 0
 
 	// The remainder goal is relative to the size of the copies summed so
@@ -372,7 +389,11 @@ func (s *aliasSummer) spectralAlias(P Interval, F Complex, limit int64) (Complex
 		case zeroShift:
 			sum = sum.Add(right).Add(left)
 		default:
-			ph := Cis(theta.Scale(float64(L)))
+			// e^{i2πuL}: reduce uL modulo 1 before multiplying by the
+			// enclosure of 2π, so that π's width is not multiplied by L.
+			v := u.Scale(float64(L))
+			v = v.AddFloat(-math.Round(v.Mid()))
+			ph := Cis(TwoPi.Mul(v))
 			sum = sum.Add(right.Mul(ph)).Add(left.Mul(ph.Conj()))
 		}
 		// Estimate first (cheap); twice the estimate must meet the goal
@@ -462,53 +483,67 @@ func (s *aliasSummer) spatialInfinite(scale float64) (Complex, Method, error) {
 		}
 		return Complex{}, Method{}, workLimitf("settings.max_terms", "spatial sum of %v needs more than %d samples", s.f, s.set.maxTerms())
 	}
-	var T Complex
+	var acc complexAccumulator
 	for k := lo; k <= hi; k++ {
 		if err := s.spend(1, "spatial sum"); err != nil {
 			return Complex{}, Method{}, err
 		}
-		T = T.Add(s.term(k))
+		acc.add(s.term(k))
 	}
 	rem := s.spatialRays(lo, hi)
-	T = T.Inflate(rem)
+	T := acc.value().Inflate(rem)
 	return T, Method{Side: SpatialSide, AliasTerms: hi - lo + 1, Remainder: rem, RemainderFrom: s.spat.Kinds()}, nil
 }
 
 // finiteSum sums T over the samples of a finite grid.
 func (s *aliasSummer) finiteSum() (Complex, error) {
 	lo, hi := s.g.Indices()
-	var T Complex
+	var acc complexAccumulator
 	for k := lo; k <= hi; k++ {
 		if err := s.spend(1, "finite grid sum"); err != nil {
 			return Complex{}, err
 		}
-		T = T.Add(s.term(k))
+		acc.add(s.term(k))
 	}
-	return T, nil
+	return acc.value(), nil
 }
 
 // omittedSum returns the truncation part -h Σ_{k omitted} f(x_k)e^{-iξx_k}
 // of a finite grid: the omitted samples nearest the grid are summed
 // explicitly, walking outward on both sides, until the envelope bounds the
-// rest below the goal. It returns the enclosure, the number of samples
-// summed and the remainder bound.
-func (s *aliasSummer) omittedSum(scale float64) (Complex, int64, float64, error) {
+// rest below the goal or cap samples have been summed. It returns the
+// enclosure (always rigorous: the remainder is included), the number of
+// samples summed, the remainder bound and whether the goal was met.
+func (s *aliasSummer) omittedSum(scale float64, cap int64) (Complex, int64, float64, bool, error) {
 	lo, hi := s.g.Indices()
 	var sum Complex
 	var n int64
 	a, b := lo, hi // samples a..b are accounted for
+	h := s.g.Step
+	// Leave room in the work limit for summing the grid itself.
+	cap = min(cap, s.set.maxTerms()-s.terms-s.g.Count)
 	for {
-		rem := s.spatialRays(a, b)
-		if math.IsInf(rem, 1) {
-			return Complex{}, 0, 0, invalidf("family", "%v: spatial envelope is not summable; the truncation error is unbounded", s.f)
-		}
-		// Sum at least the nearest omitted pair, so that a small truncation
-		// part is known to relative accuracy, not only bounded.
-		if rem <= s.goal(math.Max(sum.Mag(), 0x1p-60*scale)) && (n > 0 || rem == 0 || rem <= s.set.Tol) {
-			return sum.Neg().Inflate(rem), n, rem, nil
+		goal := s.goal(math.Max(sum.Mag(), 0x1p-60*scale))
+		// The rigorous remainder costs far more than a term: take it when
+		// the float estimate says the goal is met, and at doubling counts.
+		est := h * (s.spat.RayEstimate(s.at(b+1).Mid(), 1, h) + s.spat.RayEstimate(s.at(a-1).Mid(), -1, h))
+		if n == 0 || 2*est <= goal || n&(n-1) == 0 || n >= cap {
+			rem := s.spatialRays(a, b)
+			if math.IsInf(rem, 1) {
+				return Complex{}, 0, 0, false, invalidf("family", "%v: spatial envelope is not summable; the truncation error is unbounded", s.f)
+			}
+			// Sum at least the nearest omitted pair, so that a small
+			// truncation part is known to relative accuracy, not only
+			// bounded.
+			if rem <= goal && (n > 0 || rem == 0 || rem <= s.set.Tol) {
+				return sum.Neg().Inflate(rem), n, rem, true, nil
+			}
+			if n >= cap {
+				return sum.Neg().Inflate(rem), n, rem, false, nil
+			}
 		}
 		if err := s.spend(2, "truncation sum"); err != nil {
-			return Complex{}, 0, 0, err
+			return Complex{}, 0, 0, false, err
 		}
 		a--
 		b++

@@ -103,7 +103,7 @@ func bsplineValue(m int, x Interval) Interval {
 
 // Transform encloses (sin(ξ/2)/(ξ/2))^m.
 func (b BSplineFamily) Transform(xi Interval) Complex {
-	return RealC(sinc(half(xi)).IntPow(b.Order))
+	return RealC(Sinc(half(xi)).IntPow(b.Order))
 }
 
 // half returns x/2, exactly unless an endpoint is subnormal-small.

@@ -368,7 +368,7 @@ func (fb *familyBudgeter) at(xi Interval) (Budget, error) {
 		}
 		for i := 0; i < pieces; i++ {
 			st := newSummer(fb.ctx, fb.f, fb.g, xi, subinterval(fb.shifts, i, pieces), anyShift || wide, fb.opt.Settings)
-			trunc, _, _, err := st.omittedSum(F.Mag())
+			trunc, _, _, _, err := st.omittedSum(F.Mag(), truncationCap)
 			if err != nil {
 				return Budget{}, err
 			}

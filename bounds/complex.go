@@ -65,14 +65,45 @@ func (z Complex) Scale(v float64) Complex { return Complex{z.Re.Scale(v), z.Im.S
 func (z Complex) Hull(w Complex) Complex { return Complex{z.Re.Hull(w.Re), z.Im.Hull(w.Im)} }
 
 // Mag returns an upper bound on |w| over w in z.
-func (z Complex) Mag() float64 {
-	a, b := z.Re.Mag(), z.Im.Mag()
+func (z Complex) Mag() float64 { return hypotUp(z.Re.Mag(), z.Im.Mag()) }
+
+// Mig returns a lower bound on |w| over w in z.
+func (z Complex) Mig() float64 { return hypotDown(z.Re.Mig(), z.Im.Mig()) }
+
+// Scaling for hypotUp and hypotDown: operands beyond 2^±500 are scaled by
+// the exact power 2^∓600 so that squaring neither overflows nor underflows.
+const (
+	hypotBig   = 0x1p500
+	hypotSmall = 0x1p-500
+	hypotDown2 = 0x1p-600
+	hypotUp2   = 0x1p600
+)
+
+// hypotUp returns an upper bound on √(a² + b²) for a, b ≥ 0.
+func hypotUp(a, b float64) float64 {
+	m := fmax(a, b)
+	switch {
+	case math.IsInf(m, 1):
+		return m
+	case m > hypotBig:
+		return mulUp(hypotUp(mulUp(a, hypotDown2), mulUp(b, hypotDown2)), hypotUp2)
+	case m < hypotSmall && m > 0:
+		return mulUp(hypotUp(a*hypotUp2, b*hypotUp2), hypotDown2)
+	}
 	return sqrtUp(addUp(mulUp(a, a), mulUp(b, b)))
 }
 
-// Mig returns a lower bound on |w| over w in z.
-func (z Complex) Mig() float64 {
-	a, b := z.Re.Mig(), z.Im.Mig()
+// hypotDown returns a lower bound on √(a² + b²) for a, b ≥ 0.
+func hypotDown(a, b float64) float64 {
+	m := fmax(a, b)
+	switch {
+	case math.IsInf(m, 1):
+		return m
+	case m > hypotBig:
+		return mulDown(hypotDown(mulDown(a, hypotDown2), mulDown(b, hypotDown2)), hypotUp2)
+	case m < hypotSmall && m > 0:
+		return mulDown(hypotDown(a*hypotUp2, b*hypotUp2), hypotDown2)
+	}
 	return sqrtDown(addDown(mulDown(a, a), mulDown(b, b)))
 }
 
@@ -89,5 +120,9 @@ func (z Complex) Inflate(r float64) Complex {
 	}
 }
 
-// Cis returns e^{iθ} = cos θ + i sin θ.
-func Cis(theta Interval) Complex { return Complex{Cos(theta), Sin(theta)} }
+// Cis returns e^{iθ} = cos θ + i sin θ. A point or thin θ costs one call
+// to math.Sincos (see sinCos).
+func Cis(theta Interval) Complex {
+	s, c := sinCos(theta)
+	return Complex{c, s}
+}

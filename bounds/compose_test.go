@@ -348,8 +348,9 @@ func TestComposeValidate(t *testing.T) {
 		{"modulation -Inf", ModulationFamily{Omega0: -inf, Of: g}, "modulation.omega0"},
 		{"amplitude re Inf", AmplitudeFamily{Re: inf, Of: g}, "amplitude.re"},
 		{"amplitude im NaN", AmplitudeFamily{Re: 1, Im: nan, Of: g}, "amplitude.im"},
-		{"amplitude overflow", AmplitudeFamily{Re: 1e308, Im: 1e308, Of: g}, "amplitude.spatial[0].amplitude"},
-		{"nested overflow", SumFamily{[]Family{g, ShiftFamily{1, AmplitudeFamily{Re: 1e308, Im: 1e308, Of: g}}}}, "sum[1].shift.of.amplitude.spatial[0].amplitude"},
+		// |c| = √2·1e308 is finite; σ√(2π)|c|, the spectral amplitude, is not.
+		{"amplitude overflow", AmplitudeFamily{Re: 1e308, Im: 1e308, Of: g}, "amplitude.spectral[0].amplitude"},
+		{"nested overflow", SumFamily{[]Family{g, ShiftFamily{1, AmplitudeFamily{Re: 1e308, Im: 1e308, Of: g}}}}, "sum[1].shift.of.amplitude.spectral[0].amplitude"},
 		{"shift overflow", ShiftFamily{By: 1.5e308, Of: ShiftFamily{By: 1.5e308, Of: g}}, "shift.spatial[0].center"},
 		{"nested leaf", ModulationFamily{1, SumFamily{[]Family{g, AmplitudeFamily{1, 0, SechFamily{0}}}}}, "modulation.of.sum[1].amplitude.of.sech.width"},
 		{"too deep", chain(MaxComposeNodes), "shift.of."},

@@ -268,8 +268,8 @@ func TestSeriesHelpers(t *testing.T) {
 		f    func(Interval) Interval
 		ref  func(float64) *big.Float
 	}{
-		{"xOverSinh", xOverSinh, q},
-		{"fejerSinc", fejerSinc, sinc},
+		{"XOverSinh", XOverSinh, q},
+		{"Sinc", Sinc, sinc},
 	}
 	var pts []float64
 	for _, v := range []float64{0, 1e-300, 1e-20, 1e-8, 1e-3, 0.03, 0.0625, 0x1p-4 + 0x1p-56, 0.07, 0.5, 1, 3, 3.14159, math.Pi, 4.49, 4.4934, 5, 10, 50, 300, 700, 711, 800, 1e4, 1e10} {

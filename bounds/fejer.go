@@ -1,9 +1,6 @@
 package bounds
 
-import (
-	"fmt"
-	"math"
-)
+import "fmt"
 
 // FejerFamily is the band-limited Fejér function
 // f(x) = (sin(Ωx/2)/(Ωx/2))², whose transform is the triangle
@@ -38,7 +35,7 @@ func (f FejerFamily) String() string { return fmt.Sprintf("fejer(omega=%g)", f.O
 
 // Value encloses sinc²(Ωx/2), sinc u = sin(u)/u.
 func (f FejerFamily) Value(x Interval) Complex {
-	return RealC(fejerSinc(x.Scale(0.5 * f.Omega)).Sqr())
+	return RealC(Sinc(x.Scale(0.5 * f.Omega)).Sqr())
 }
 
 // Transform encloses (2π/Ω)·max(0, 1 - |ξ|/Ω), even and non-increasing in
@@ -79,25 +76,6 @@ const (
 // fejerSincBeyond is an upper bound of 1/fejerSincMono.
 var fejerSincBeyond = divUp(1, fejerSincMono)
 
-// fejerSinc encloses sinc u = sin(u)/u (sinc 0 = 1) over the interval u.
-// sinc is even; on |u| ≤ u₁ it is decreasing in |u| and is evaluated at the
-// endpoints; beyond, sin(u)/u is enclosed by interval division and
-// intersected with |sinc u| ≤ 1/|u|.
-func fejerSinc(u Interval) Interval {
-	a := u.Abs()
-	switch {
-	case a.Hi <= fejerSincMono:
-		return Interval{fejerSincPoint(a.Hi).Lo, fejerSincPoint(a.Lo).Hi}
-	case a.Lo <= fejerSincMono:
-		// The interval covers the decreasing piece [a.Lo, u₁] and reaches
-		// beyond it, where |sinc| ≤ 1/u₁.
-		return Interval{fejerSincMin, math.Max(fejerSincPoint(a.Lo).Hi, fejerSincBeyond)}
-	}
-	r := Sin(a).Div(a)
-	m := divUp(1, a.Lo)
-	return Interval{math.Max(r.Lo, -m), math.Min(r.Hi, m)}
-}
-
 // fejerSincCoef encloses the Taylor coefficients (-1)ⁿ/(2n+1)!, n = 0…4,
 // of sinc.
 var fejerSincCoef = [5]Interval{
@@ -106,27 +84,4 @@ var fejerSincCoef = [5]Interval{
 	Point(1).Div(Point(120)),
 	Point(-1).Div(Point(5040)),
 	Point(1).Div(Point(362880)),
-}
-
-// fejerSincPoint encloses sinc t for t ≥ 0. For t ≤ 1/16 it sums the
-// alternating series (DLMF 4.19.1, from memory)
-//
-//	sinc t = 1 - t²/3! + t⁴/5! - t⁶/7! + t⁸/9! - R,  0 ≤ R ≤ t¹⁰/11! < 3·10⁻²⁰,
-//
-// whose terms decrease in magnitude for t < √6; beyond, it divides an
-// enclosure of sin t by t.
-func fejerSincPoint(t float64) Interval {
-	if t > fejerSincSeries {
-		r := divPos(Sin(Point(t)), t)
-		return Interval{math.Max(-1, r.Lo), math.Min(1, r.Hi)}
-	}
-	u2 := Point(t).Sqr()
-	p := fejerSincCoef[4]
-	for i := 3; i >= 0; i-- {
-		p = p.Mul(u2).Add(fejerSincCoef[i])
-	}
-	// p = 1 - t²/6 + t⁴/120 - t⁶/5040 + t⁸/362880; the next term is
-	// -t¹⁰/11! and the remainder lies between it and 0.
-	rem := divUp(mulUp(mulUp(u2.Hi, u2.Hi), mulUp(mulUp(u2.Hi, u2.Hi), u2.Hi)), 39916800)
-	return Interval{addDown(p.Lo, -rem), math.Min(1, p.Hi)}
 }

@@ -77,34 +77,37 @@ func (x Interval) Mid() float64 {
 func (x Interval) Width() float64 { return addUp(x.Hi, -x.Lo) }
 
 // Mag returns max |v| over v in x (the magnitude), an exact value.
-func (x Interval) Mag() float64 { return math.Max(math.Abs(x.Lo), math.Abs(x.Hi)) }
+func (x Interval) Mag() float64 { return fmax(math.Abs(x.Lo), math.Abs(x.Hi)) }
 
 // Mig returns min |v| over v in x (the mignitude), an exact value.
 func (x Interval) Mig() float64 {
 	if x.ContainsZero() {
 		return 0
 	}
-	return math.Min(math.Abs(x.Lo), math.Abs(x.Hi))
+	return fmin(math.Abs(x.Lo), math.Abs(x.Hi))
 }
 
 // RelWidth returns an upper bound on the width of x relative to its
 // magnitude, (Hi-Lo)/Mag; 0 for the point 0.
 func (x Interval) RelWidth() float64 {
 	m := x.Mag()
-	if m == 0 {
+	switch {
+	case m == 0:
 		return 0
+	case math.IsInf(m, 1):
+		return math.Inf(1)
 	}
 	return divUp(x.Width(), m)
 }
 
 // Hull returns the smallest interval containing x and y.
 func (x Interval) Hull(y Interval) Interval {
-	return Interval{math.Min(x.Lo, y.Lo), math.Max(x.Hi, y.Hi)}
+	return Interval{fmin(x.Lo, y.Lo), fmax(x.Hi, y.Hi)}
 }
 
 // Intersect returns x ∩ y and whether it is non-empty.
 func (x Interval) Intersect(y Interval) (Interval, bool) {
-	z := Interval{math.Max(x.Lo, y.Lo), math.Min(x.Hi, y.Hi)}
+	z := Interval{fmax(x.Lo, y.Lo), fmin(x.Hi, y.Hi)}
 	return z, z.Lo <= z.Hi
 }
 
@@ -119,7 +122,7 @@ func (x Interval) Abs() Interval {
 	case x.Hi <= 0:
 		return x.Neg()
 	default:
-		return Interval{0, math.Max(-x.Lo, x.Hi)}
+		return Interval{0, fmax(-x.Lo, x.Hi)}
 	}
 }
 
@@ -139,32 +142,51 @@ func (x Interval) AddFloat(v float64) Interval {
 }
 
 // Mul returns x * y. A zero endpoint times an infinite one counts as zero,
-// as in IEEE 1788 interval arithmetic, so no NaN arises.
+// as in IEEE 1788 interval arithmetic, so no NaN arises. The endpoints are
+// chosen by the signs of x and y (two products, four when both contain 0).
 func (x Interval) Mul(y Interval) Interval {
-	// Fast paths for the common sign patterns.
 	switch {
-	case x.Lo >= 0 && y.Lo >= 0:
-		return Interval{mulDown(x.Lo, y.Lo), mulUp(x.Hi, y.Hi)}
-	case x.Hi <= 0 && y.Hi <= 0:
-		return Interval{mulDown(x.Hi, y.Hi), mulUp(x.Lo, y.Lo)}
-	case x.Lo >= 0 && y.Hi <= 0:
-		return Interval{mulDown(x.Hi, y.Lo), mulUp(x.Lo, y.Hi)}
-	case x.Hi <= 0 && y.Lo >= 0:
-		return Interval{mulDown(x.Lo, y.Hi), mulUp(x.Hi, y.Lo)}
+	case x.Lo >= 0:
+		switch {
+		case y.Lo >= 0:
+			return Interval{mulDown(x.Lo, y.Lo), mulUp(x.Hi, y.Hi)}
+		case y.Hi <= 0:
+			return Interval{mulDown(x.Hi, y.Lo), mulUp(x.Lo, y.Hi)}
+		default:
+			return Interval{mulDown(x.Hi, y.Lo), mulUp(x.Hi, y.Hi)}
+		}
+	case x.Hi <= 0:
+		switch {
+		case y.Lo >= 0:
+			return Interval{mulDown(x.Lo, y.Hi), mulUp(x.Hi, y.Lo)}
+		case y.Hi <= 0:
+			return Interval{mulDown(x.Hi, y.Hi), mulUp(x.Lo, y.Lo)}
+		default:
+			return Interval{mulDown(x.Lo, y.Hi), mulUp(x.Lo, y.Lo)}
+		}
 	}
-	lo := math.Min(math.Min(mulDown(x.Lo, y.Lo), mulDown(x.Lo, y.Hi)),
-		math.Min(mulDown(x.Hi, y.Lo), mulDown(x.Hi, y.Hi)))
-	hi := math.Max(math.Max(mulUp(x.Lo, y.Lo), mulUp(x.Lo, y.Hi)),
-		math.Max(mulUp(x.Hi, y.Lo), mulUp(x.Hi, y.Hi)))
-	return Interval{lo, hi}
+	// x contains 0 in its interior.
+	switch {
+	case y.Lo >= 0:
+		return Interval{mulDown(x.Lo, y.Hi), mulUp(x.Hi, y.Hi)}
+	case y.Hi <= 0:
+		return Interval{mulDown(x.Hi, y.Lo), mulUp(x.Lo, y.Lo)}
+	}
+	return Interval{
+		fmin(mulDown(x.Lo, y.Hi), mulDown(x.Hi, y.Lo)),
+		fmax(mulUp(x.Lo, y.Lo), mulUp(x.Hi, y.Hi)),
+	}
 }
 
-// Scale returns v * x for a float64 v.
+// Scale returns v * x for a float64 v; a NaN v gives Entire.
 func (x Interval) Scale(v float64) Interval {
-	if v >= 0 {
+	switch {
+	case v >= 0:
 		return Interval{mulDown(x.Lo, v), mulUp(x.Hi, v)}
+	case v < 0:
+		return Interval{mulDown(x.Hi, v), mulUp(x.Lo, v)}
 	}
-	return Interval{mulDown(x.Hi, v), mulUp(x.Lo, v)}
+	return entire
 }
 
 // Sqr returns {v² : v in x}, tighter than x.Mul(x) when x contains 0.
@@ -174,15 +196,31 @@ func (x Interval) Sqr() Interval {
 }
 
 // Div returns x / y. If y contains 0 the result is Entire.
+//
+// The endpoints are chosen by the signs of x and y (IEEE 1788, Table 3 —
+// from memory), so that no ∞/∞ arises from valid operands.
 func (x Interval) Div(y Interval) Interval {
-	if y.ContainsZero() {
-		return entire
+	switch {
+	case y.Lo > 0:
+		switch {
+		case x.Lo >= 0:
+			return Interval{divDown(x.Lo, y.Hi), divUp(x.Hi, y.Lo)}
+		case x.Hi <= 0:
+			return Interval{divDown(x.Lo, y.Lo), divUp(x.Hi, y.Hi)}
+		default:
+			return Interval{divDown(x.Lo, y.Lo), divUp(x.Hi, y.Lo)}
+		}
+	case y.Hi < 0:
+		switch {
+		case x.Lo >= 0:
+			return Interval{divDown(x.Hi, y.Hi), divUp(x.Lo, y.Lo)}
+		case x.Hi <= 0:
+			return Interval{divDown(x.Hi, y.Lo), divUp(x.Lo, y.Hi)}
+		default:
+			return Interval{divDown(x.Hi, y.Hi), divUp(x.Lo, y.Hi)}
+		}
 	}
-	lo := math.Min(math.Min(divDown(x.Lo, y.Lo), divDown(x.Lo, y.Hi)),
-		math.Min(divDown(x.Hi, y.Lo), divDown(x.Hi, y.Hi)))
-	hi := math.Max(math.Max(divUp(x.Lo, y.Lo), divUp(x.Lo, y.Hi)),
-		math.Max(divUp(x.Hi, y.Lo), divUp(x.Hi, y.Hi)))
-	return Interval{lo, hi}
+	return entire
 }
 
 // Recip returns 1 / x. If x contains 0 the result is Entire.
@@ -195,22 +233,29 @@ func (x Interval) Recip() Interval {
 
 // Max returns {max(u, v) : u in x, v in y}.
 func (x Interval) Max(y Interval) Interval {
-	return Interval{math.Max(x.Lo, y.Lo), math.Max(x.Hi, y.Hi)}
+	return Interval{fmax(x.Lo, y.Lo), fmax(x.Hi, y.Hi)}
 }
 
 // Min returns {min(u, v) : u in x, v in y}.
 func (x Interval) Min(y Interval) Interval {
-	return Interval{math.Min(x.Lo, y.Lo), math.Min(x.Hi, y.Hi)}
+	return Interval{fmin(x.Lo, y.Lo), fmin(x.Hi, y.Hi)}
 }
 
-// IntPow returns x^n for an integer n ≥ 0. The power is monotone on each
-// endpoint's side, so it is evaluated at the endpoints by repeated squaring
-// in interval arithmetic.
+// IntPow returns x^n for an integer n. The power is monotone on each side
+// of 0, so it is evaluated at the endpoints by repeated squaring in interval
+// arithmetic. x^0 is 1 (also for x containing 0 or ∞); for n < 0 the result
+// is 1/x^|n|, Entire if x contains 0.
 func (x Interval) IntPow(n int) Interval {
-	if n <= 0 {
+	switch {
+	case n == 0:
 		return Point(1)
-	}
-	if n%2 == 0 {
+	case n < 0:
+		if n == math.MinInt {
+			// |n| is not an int; x^n = (x^(n/2))².
+			return x.IntPow(n / 2).Sqr()
+		}
+		return x.IntPow(-n).Recip()
+	case n%2 == 0:
 		a := x.Abs()
 		return Interval{powPoint(a.Lo, n).Lo, powPoint(a.Hi, n).Hi}
 	}

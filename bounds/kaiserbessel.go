@@ -96,7 +96,8 @@ func (k KaiserBesselFamily) inside(a Interval) Interval {
 	onePlus := t.AddFloat(1)
 	b := Point(k.Beta)
 	y := b.Sqr().Scale(0.25).Mul(oneMinus).Mul(onePlus)
-	return besselI0Quarter(y)
+	lo, hi := besselI0Quarter(math.Max(y.Lo, 0), math.Max(y.Hi, 0))
+	return Interval{lo, hi}
 }
 
 // Transform encloses W·S(β² - u²), u = Wξ/2, with S(z) = sinh(√z)/√z
@@ -105,13 +106,13 @@ func (k KaiserBesselFamily) Transform(xi Interval) Complex {
 	u := xi.Scale(k.Width).Scale(0.5).Abs()
 	b := Point(k.Beta)
 	z := b.Sub(u).Mul(b.Add(u))
-	return RealC(sinhcSqrt(z).Scale(k.Width))
+	return RealC(SinhcSqrt(z).Scale(k.Width))
 }
 
 // Spatial is compact support on [-W/2, W/2] with height I0(β), the
 // maximum (at x = 0; I0 is increasing on [0, ∞)), rounded up.
 func (k KaiserBesselFamily) Spatial() Envelope {
-	return Envelope{{Decay: Compact, Amplitude: besselI0(Point(k.Beta)).Hi, Width: divUp(k.Width, 2)}}
+	return Envelope{{Decay: Compact, Amplitude: BesselI0(Point(k.Beta)).Hi, Width: divUp(k.Width, 2)}}
 }
 
 // Spectral is a two-term envelope, in u = W|ξ|/2:
@@ -129,7 +130,7 @@ func (k KaiserBesselFamily) Spatial() Envelope {
 // not summable and alias sums use the spatial side.
 func (k KaiserBesselFamily) Spectral() Envelope {
 	W := Point(k.Width)
-	peak := sinhcSqrt(Point(k.Beta).Sqr()).Mul(W).Hi
+	peak := SinhcSqrt(Point(k.Beta).Sqr()).Mul(W).Hi
 	band := Point(k.Beta).Scale(2).Div(W).Hi
 	plateau := Point(k.Beta).AddFloat(1).Scale(2).Div(W).Hi
 	width := Point(2).Div(W).Lo

@@ -1,9 +1,6 @@
 package bounds
 
-import (
-	"fmt"
-	"math"
-)
+import "fmt"
 
 // SechSquaredFamily is f(x) = sech²(x/w), whose transform is
 //
@@ -42,7 +39,7 @@ func (s SechSquaredFamily) Value(x Interval) Complex {
 func (s SechSquaredFamily) Transform(xi Interval) Complex {
 	w := s.Width
 	v := xi.Mul(Pi.Scale(w)).Scale(0.5)
-	return RealC(xOverSinh(v).Scale(2 * w))
+	return RealC(XOverSinh(v).Scale(2 * w))
 }
 
 // Spatial bounds f by the square of the bound of sech (see SechFamily):
@@ -74,13 +71,6 @@ func (s SechSquaredFamily) Spectral() Envelope {
 	return Envelope{cappedExponential(mulUp(2, w), lnB, rate)}
 }
 
-// xOverSinh encloses q(v) = v/sinh v (q(0) = 1), which is even and
-// decreasing in |v|, so it is evaluated at the endpoints of |v|.
-func xOverSinh(v Interval) Interval {
-	a := v.Abs()
-	return Interval{xOverSinhPoint(a.Hi).Lo, xOverSinhPoint(a.Lo).Hi}
-}
-
 // xOverSinhCoef encloses the Taylor coefficients c₁…c₅ of
 //
 //	v/sinh v = 1 + Σ_{n≥1} c_n v^{2n} = 1 + 2·Σ_{n≥1} (-1)ⁿ η(2n)·(v/π)^{2n}
@@ -99,31 +89,3 @@ var xOverSinhCoef = [5]Interval{
 
 // xOverSinhSeries is the largest |v| at which q is summed as a series.
 const xOverSinhSeries = 0x1p-4
-
-// xOverSinhPoint encloses q(t) for t ≥ 0. For t ≤ 1/16 it sums the series
-// to v¹⁰ with the remainder
-//
-//	|Σ_{n≥6} c_n t^{2n}| ≤ 2·Σ_{n≥6} r^n = 2r⁶/(1 - r),  r = (t/π)² ≤ 4·10⁻⁴,
-//
-// below 10⁻²⁰; beyond, it divides t by an enclosure of sinh t.
-func xOverSinhPoint(t float64) Interval {
-	switch {
-	case math.IsInf(t, 1):
-		return Point(0)
-	case t <= xOverSinhSeries:
-		u2 := Point(t).Sqr()
-		p := xOverSinhCoef[4]
-		for i := 3; i >= 0; i-- {
-			p = p.Mul(u2).Add(xOverSinhCoef[i])
-		}
-		p = p.Mul(u2).AddFloat(1)
-		// r ≤ t²/9.8696 (π² > 9.8696); 2/(1-r) ≤ 2.001.
-		r := divUp(u2.Hi, 9.8696)
-		r2 := mulUp(r, r)
-		rem := mulUp(2.001, mulUp(mulUp(r2, r2), r2))
-		return Interval{addDown(p.Lo, -rem), math.Min(1, addUp(p.Hi, rem))}
-	}
-	// t > 1/16 and sinh t > 0: t/sinh t is least at the upper end of sinh.
-	sh := Sinh(Point(t))
-	return Interval{math.Max(0, divDown(t, sh.Hi)), math.Min(1, divUp(t, sh.Lo))}
-}
