@@ -400,18 +400,12 @@ func (lim Limits) checkPlanGrid(r *pb.PlanGridRequest) (int, error) {
 	c.perAxis("frequency_spacing", r.GetFrequencySpacing(), dim, c.nonNegative)
 	c.perAxis("shift", r.GetShift(), dim, c.finite)
 	cost := r.GetCost()
-	if _, ok := pb.CostKind_name[int32(cost.GetKind())]; !ok {
-		c.bad("cost.kind", "unknown cost kind %d", cost.GetKind())
+	if _, ok := pb.SizeRule_name[int32(cost.GetSizes())]; !ok {
+		c.bad("cost.sizes", "unknown size rule %d", cost.GetSizes())
 	}
 	c.nonNegative("cost.per_sample", cost.GetPerSample())
 	c.nonNegative("cost.per_transform", cost.GetPerTransform())
-	if cost.GetKind() == pb.CostKind_COST_KIND_WEIGHTED {
-		if cost.GetPerSample()+cost.GetPerTransform() <= 0 {
-			c.bad("cost", "COST_KIND_WEIGHTED needs per_sample + per_transform > 0")
-		}
-	} else if cost.GetPerSample() != 0 || cost.GetPerTransform() != 0 {
-		c.bad("cost", "per_sample and per_transform are used only by COST_KIND_WEIGHTED and must be 0")
-	}
+	c.nonNegative("sample_ulps", r.GetSampleUlps())
 	if r.GetMaxSamples() < 0 {
 		c.bad("max_samples", "must be ≥ 0 (0 is the server's limit), got %d", r.GetMaxSamples())
 	}

@@ -20,8 +20,9 @@ func newPlanCmd(stdout, stderr io.Writer) *cobra.Command {
 		tol                     float64
 		xi, band, spacing       []float64
 		fixedShift              []float64
-		cost                    string
+		fftSizes                bool
 		perSample, perTransform float64
+		sampleUlps              float64
 		maxSamples              int64
 	)
 	cmd := &cobra.Command{
@@ -32,7 +33,7 @@ error budget (aliasing + truncation + rounding) is within --tol, for the
 integral or for a sampled transform over a band, for every shift unless
 --fixed-shift is given. The plan is re-verified before it is returned.`,
 		Example: `  foldbound plan --family 'gaussian(sigma=0.7)' --tol 1e-12
-  foldbound plan --family 'wave-packet(sigma=2, omega0=6)' --tol 1e-9 --xi 6 --band 2 --cost fft
+  foldbound plan --family 'wave-packet(sigma=2, omega0=6)' --tol 1e-9 --xi 6 --band 2 --fft-sizes
   foldbound plan --request plan.json --json`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error {
@@ -72,16 +73,10 @@ integral or for a sampled transform over a band, for every shift unless
 					return err
 				}
 				req.Cost = &pb.CostModel{PerSample: perSample, PerTransform: perTransform}
-				switch strings.ToLower(cost) {
-				case "samples", "":
-					req.Cost.Kind = pb.CostKind_COST_KIND_SAMPLES
-				case "fft":
-					req.Cost.Kind = pb.CostKind_COST_KIND_FFT_SIZES
-				case "weighted":
-					req.Cost.Kind = pb.CostKind_COST_KIND_WEIGHTED
-				default:
-					return fmt.Errorf("--cost %q: want samples, fft or weighted", cost)
+				if fftSizes {
+					req.Cost.Sizes = pb.SizeRule_SIZE_RULE_FFT_FRIENDLY
 				}
+				req.SampleUlps = sampleUlps
 				req.MaxSamples = maxSamples
 				if req.Settings, req.Convention, err = set.settings(); err != nil {
 					return err
@@ -111,9 +106,10 @@ integral or for a sampled transform over a band, for every shift unless
 	fs.Float64SliceVar(&band, "band", nil, "band half-width per axis (default 0)")
 	fs.Float64SliceVar(&spacing, "spacing", nil, "required frequency spacing of the transform per axis (0: none)")
 	fs.Float64SliceVar(&fixedShift, "fixed-shift", nil, "plan for this shift per axis instead of every shift")
-	fs.StringVar(&cost, "cost", "samples", "what to minimise: samples, fft (sizes 2^a 3^b 5^c 7^d) or weighted")
-	fs.Float64Var(&perSample, "per-sample", 0, "weighted cost: cost of one sample")
-	fs.Float64Var(&perTransform, "per-transform", 0, "weighted cost: factor of the N log2 N transform cost")
+	fs.BoolVar(&fftSizes, "fft-sizes", false, "allow only FFT-friendly counts 2^a 3^b 5^c 7^d")
+	fs.Float64Var(&perSample, "per-sample", 0, "cost of one sample (0 with --per-transform 0: count samples)")
+	fs.Float64Var(&perTransform, "per-transform", 0, "cost per N log2 N of a transform of the samples (0: none)")
+	fs.Float64Var(&sampleUlps, "sample-ulps", 0, "error of each sample value in units of 2^-53 (0: correctly rounded)")
 	fs.Int64Var(&maxSamples, "max-samples", 0, "largest acceptable total sample count (0: the server's limit)")
 	return cmd
 }

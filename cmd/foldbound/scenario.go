@@ -210,7 +210,7 @@ for every placement of the samples.
 
 	fmt.Fprintf(w, "\n  Cheapest FFT-friendly size (2^a 3^b 5^c 7^d) certified within %g:\n", tol)
 	plan, err := d.cheapest(ctx, &pb.PlanGridRequest{Subject: &pb.PlanGridRequest_Envelopes{Envelopes: env}, Tol: tol,
-		Frequency: band, Cost: &pb.CostModel{Kind: pb.CostKind_COST_KIND_FFT_SIZES}},
+		Frequency: band, Cost: &pb.CostModel{Sizes: pb.SizeRule_SIZE_RULE_FFT_FRIENDLY}},
 		fftSizes(16, 256), geometric(0.1, 0.6, 50))
 	if err != nil {
 		return err

@@ -21,74 +21,74 @@ const (
 	_ = protoimpl.EnforceVersion(protoimpl.MaxVersion - 20)
 )
 
-// CostKind selects what a plan minimises.
-type CostKind int32
+// SizeRule restricts the sample counts a plan may use on each axis.
+type SizeRule int32
 
 const (
-	// Unset: treated as COST_KIND_SAMPLES.
-	CostKind_COST_KIND_UNSPECIFIED CostKind = 0
-	// The number of samples (product of the per-axis counts).
-	CostKind_COST_KIND_SAMPLES CostKind = 1
-	// The number of samples, with every per-axis count restricted to
-	// FFT-friendly sizes 2^a 3^b 5^c 7^d.
-	CostKind_COST_KIND_FFT_SIZES CostKind = 2
-	// per_sample * N + per_transform * N log2 N, N the total sample count.
-	CostKind_COST_KIND_WEIGHTED CostKind = 3
+	// Unset: treated as SIZE_RULE_ANY.
+	SizeRule_SIZE_RULE_UNSPECIFIED SizeRule = 0
+	// Every count N >= 1.
+	SizeRule_SIZE_RULE_ANY SizeRule = 1
+	// Only FFT-friendly counts N = 2^a 3^b 5^c 7^d.
+	SizeRule_SIZE_RULE_FFT_FRIENDLY SizeRule = 2
 )
 
-// Enum value maps for CostKind.
+// Enum value maps for SizeRule.
 var (
-	CostKind_name = map[int32]string{
-		0: "COST_KIND_UNSPECIFIED",
-		1: "COST_KIND_SAMPLES",
-		2: "COST_KIND_FFT_SIZES",
-		3: "COST_KIND_WEIGHTED",
+	SizeRule_name = map[int32]string{
+		0: "SIZE_RULE_UNSPECIFIED",
+		1: "SIZE_RULE_ANY",
+		2: "SIZE_RULE_FFT_FRIENDLY",
 	}
-	CostKind_value = map[string]int32{
-		"COST_KIND_UNSPECIFIED": 0,
-		"COST_KIND_SAMPLES":     1,
-		"COST_KIND_FFT_SIZES":   2,
-		"COST_KIND_WEIGHTED":    3,
+	SizeRule_value = map[string]int32{
+		"SIZE_RULE_UNSPECIFIED":  0,
+		"SIZE_RULE_ANY":          1,
+		"SIZE_RULE_FFT_FRIENDLY": 2,
 	}
 )
 
-func (x CostKind) Enum() *CostKind {
-	p := new(CostKind)
+func (x SizeRule) Enum() *SizeRule {
+	p := new(SizeRule)
 	*p = x
 	return p
 }
 
-func (x CostKind) String() string {
+func (x SizeRule) String() string {
 	return protoimpl.X.EnumStringOf(x.Descriptor(), protoreflect.EnumNumber(x))
 }
 
-func (CostKind) Descriptor() protoreflect.EnumDescriptor {
+func (SizeRule) Descriptor() protoreflect.EnumDescriptor {
 	return file_foldbound_v1_plan_proto_enumTypes[0].Descriptor()
 }
 
-func (CostKind) Type() protoreflect.EnumType {
+func (SizeRule) Type() protoreflect.EnumType {
 	return &file_foldbound_v1_plan_proto_enumTypes[0]
 }
 
-func (x CostKind) Number() protoreflect.EnumNumber {
+func (x SizeRule) Number() protoreflect.EnumNumber {
 	return protoreflect.EnumNumber(x)
 }
 
-// Deprecated: Use CostKind.Descriptor instead.
-func (CostKind) EnumDescriptor() ([]byte, []int) {
+// Deprecated: Use SizeRule.Descriptor instead.
+func (SizeRule) EnumDescriptor() ([]byte, []int) {
 	return file_foldbound_v1_plan_proto_rawDescGZIP(), []int{0}
 }
 
-// CostModel is what a plan minimises.
+// CostModel prices a grid of M samples in total (the product of the
+// per-axis counts):
+//
+//	cost = per_sample * M + per_transform * M log2 M.
+//
+// The zero value counts samples, any size.
 type CostModel struct {
 	state protoimpl.MessageState `protogen:"open.v1"`
-	// The kind of cost. Default COST_KIND_SAMPLES.
-	Kind CostKind `protobuf:"varint,1,opt,name=kind,proto3,enum=foldbound.v1.CostKind" json:"kind,omitempty"`
-	// Cost of one sample of the integrand (finite, >= 0), any unit;
-	// COST_KIND_WEIGHTED only.
+	// Allowed counts per axis. Default any.
+	Sizes SizeRule `protobuf:"varint,1,opt,name=sizes,proto3,enum=foldbound.v1.SizeRule" json:"sizes,omitempty"`
+	// Cost of one sample of the integrand (finite, >= 0), any unit; 0 means
+	// 1 when per_transform is 0 too.
 	PerSample float64 `protobuf:"fixed64,2,opt,name=per_sample,json=perSample,proto3" json:"per_sample,omitempty"`
-	// Cost factor of the N log2 N transform (finite, >= 0), same unit;
-	// COST_KIND_WEIGHTED only. per_sample + per_transform must be > 0.
+	// Cost per M log2 M of a fast Fourier transform of the samples (finite,
+	// >= 0), same unit; 0 means no transform.
 	PerTransform  float64 `protobuf:"fixed64,3,opt,name=per_transform,json=perTransform,proto3" json:"per_transform,omitempty"`
 	unknownFields protoimpl.UnknownFields
 	sizeCache     protoimpl.SizeCache
@@ -124,11 +124,11 @@ func (*CostModel) Descriptor() ([]byte, []int) {
 	return file_foldbound_v1_plan_proto_rawDescGZIP(), []int{0}
 }
 
-func (x *CostModel) GetKind() CostKind {
+func (x *CostModel) GetSizes() SizeRule {
 	if x != nil {
-		return x.Kind
+		return x.Sizes
 	}
-	return CostKind_COST_KIND_UNSPECIFIED
+	return SizeRule_SIZE_RULE_UNSPECIFIED
 }
 
 func (x *CostModel) GetPerSample() float64 {
@@ -271,9 +271,9 @@ var File_foldbound_v1_plan_proto protoreflect.FileDescriptor
 
 const file_foldbound_v1_plan_proto_rawDesc = "" +
 	"\n" +
-	"\x17foldbound/v1/plan.proto\x12\ffoldbound.v1\x1a\x19foldbound/v1/budget.proto\x1a\x17foldbound/v1/grid.proto\x1a\x1afoldbound/v1/numbers.proto\"{\n" +
-	"\tCostModel\x12*\n" +
-	"\x04kind\x18\x01 \x01(\x0e2\x16.foldbound.v1.CostKindR\x04kind\x12\x1d\n" +
+	"\x17foldbound/v1/plan.proto\x12\ffoldbound.v1\x1a\x19foldbound/v1/budget.proto\x1a\x17foldbound/v1/grid.proto\x1a\x1afoldbound/v1/numbers.proto\"}\n" +
+	"\tCostModel\x12,\n" +
+	"\x05sizes\x18\x01 \x01(\x0e2\x16.foldbound.v1.SizeRuleR\x05sizes\x12\x1d\n" +
 	"\n" +
 	"per_sample\x18\x02 \x01(\x01R\tperSample\x12#\n" +
 	"\rper_transform\x18\x03 \x01(\x01R\fperTransform\"e\n" +
@@ -283,12 +283,11 @@ const file_foldbound_v1_plan_proto_rawDesc = "" +
 	"\fVerification\x12\x1a\n" +
 	"\bverified\x18\x01 \x01(\bR\bverified\x121\n" +
 	"\x06budget\x18\x02 \x01(\v2\x19.foldbound.v1.ErrorBudgetR\x06budget\x12\x16\n" +
-	"\x06method\x18\x03 \x01(\tR\x06method*m\n" +
-	"\bCostKind\x12\x19\n" +
-	"\x15COST_KIND_UNSPECIFIED\x10\x00\x12\x15\n" +
-	"\x11COST_KIND_SAMPLES\x10\x01\x12\x17\n" +
-	"\x13COST_KIND_FFT_SIZES\x10\x02\x12\x16\n" +
-	"\x12COST_KIND_WEIGHTED\x10\x03B(Z&foldbound/api/foldbound/v1;foldboundv1b\x06proto3"
+	"\x06method\x18\x03 \x01(\tR\x06method*T\n" +
+	"\bSizeRule\x12\x19\n" +
+	"\x15SIZE_RULE_UNSPECIFIED\x10\x00\x12\x11\n" +
+	"\rSIZE_RULE_ANY\x10\x01\x12\x1a\n" +
+	"\x16SIZE_RULE_FFT_FRIENDLY\x10\x02B(Z&foldbound/api/foldbound/v1;foldboundv1b\x06proto3"
 
 var (
 	file_foldbound_v1_plan_proto_rawDescOnce sync.Once
@@ -305,7 +304,7 @@ func file_foldbound_v1_plan_proto_rawDescGZIP() []byte {
 var file_foldbound_v1_plan_proto_enumTypes = make([]protoimpl.EnumInfo, 1)
 var file_foldbound_v1_plan_proto_msgTypes = make([]protoimpl.MessageInfo, 3)
 var file_foldbound_v1_plan_proto_goTypes = []any{
-	(CostKind)(0),        // 0: foldbound.v1.CostKind
+	(SizeRule)(0),        // 0: foldbound.v1.SizeRule
 	(*CostModel)(nil),    // 1: foldbound.v1.CostModel
 	(*PlannedAxis)(nil),  // 2: foldbound.v1.PlannedAxis
 	(*Verification)(nil), // 3: foldbound.v1.Verification
@@ -314,7 +313,7 @@ var file_foldbound_v1_plan_proto_goTypes = []any{
 	(*ErrorBudget)(nil),  // 6: foldbound.v1.ErrorBudget
 }
 var file_foldbound_v1_plan_proto_depIdxs = []int32{
-	0, // 0: foldbound.v1.CostModel.kind:type_name -> foldbound.v1.CostKind
+	0, // 0: foldbound.v1.CostModel.sizes:type_name -> foldbound.v1.SizeRule
 	4, // 1: foldbound.v1.PlannedAxis.grid:type_name -> foldbound.v1.Grid
 	5, // 2: foldbound.v1.PlannedAxis.window:type_name -> foldbound.v1.Interval
 	6, // 3: foldbound.v1.Verification.budget:type_name -> foldbound.v1.ErrorBudget

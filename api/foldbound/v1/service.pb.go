@@ -497,8 +497,12 @@ type PlanGridRequest struct {
 	// Numerical settings.
 	Settings *Settings `protobuf:"bytes,9,opt,name=settings,proto3" json:"settings,omitempty"`
 	// Largest total sample count acceptable, >= 0; 0 means the server's
-	// limit. Plans that would need more are answered with OUT_OF_RANGE.
-	MaxSamples    int64 `protobuf:"varint,10,opt,name=max_samples,json=maxSamples,proto3" json:"max_samples,omitempty"`
+	// limit. Plans that would need more are answered with RESOURCE_EXHAUSTED
+	// and the smallest tolerance within the limit.
+	MaxSamples int64 `protobuf:"varint,10,opt,name=max_samples,json=maxSamples,proto3" json:"max_samples,omitempty"`
+	// Error of each sample value f(x_k) as the caller computes it, in units
+	// of 2^-53 (finite, >= 0); 0 means 1: correctly rounded samples.
+	SampleUlps    float64 `protobuf:"fixed64,11,opt,name=sample_ulps,json=sampleUlps,proto3" json:"sample_ulps,omitempty"`
 	unknownFields protoimpl.UnknownFields
 	sizeCache     protoimpl.SizeCache
 }
@@ -610,6 +614,13 @@ func (x *PlanGridRequest) GetSettings() *Settings {
 func (x *PlanGridRequest) GetMaxSamples() int64 {
 	if x != nil {
 		return x.MaxSamples
+	}
+	return 0
+}
+
+func (x *PlanGridRequest) GetSampleUlps() float64 {
+	if x != nil {
+		return x.SampleUlps
 	}
 	return 0
 }
@@ -2046,7 +2057,7 @@ const file_foldbound_v1_service_proto_rawDesc = "" +
 	"convention\x12\x18\n" +
 	"\asubject\x18\x03 \x01(\tR\asubject\x12(\n" +
 	"\x10worst_case_shift\x18\x04 \x01(\bR\x0eworstCaseShift\x120\n" +
-	"\tfrequency\x18\x05 \x01(\v2\x12.foldbound.v1.BandR\tfrequency\"\xc8\x03\n" +
+	"\tfrequency\x18\x05 \x01(\v2\x12.foldbound.v1.BandR\tfrequency\"\xe9\x03\n" +
 	"\x0fPlanGridRequest\x12.\n" +
 	"\x06family\x18\x01 \x01(\v2\x14.foldbound.v1.FamilyH\x00R\x06family\x127\n" +
 	"\tenvelopes\x18\x02 \x01(\v2\x17.foldbound.v1.EnvelopesH\x00R\tenvelopes\x12\x10\n" +
@@ -2061,7 +2072,9 @@ const file_foldbound_v1_service_proto_rawDesc = "" +
 	"\bsettings\x18\t \x01(\v2\x16.foldbound.v1.SettingsR\bsettings\x12\x1f\n" +
 	"\vmax_samples\x18\n" +
 	" \x01(\x03R\n" +
-	"maxSamplesB\t\n" +
+	"maxSamples\x12\x1f\n" +
+	"\vsample_ulps\x18\v \x01(\x01R\n" +
+	"sampleUlpsB\t\n" +
 	"\asubject\"\xef\x02\n" +
 	"\x10PlanGridResponse\x12-\n" +
 	"\x04axes\x18\x01 \x03(\v2\x19.foldbound.v1.PlannedAxisR\x04axes\x121\n" +
