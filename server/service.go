@@ -210,5 +210,5 @@ func (s *service) planScan(ctx context.Context, req *pb.PlanScanRequest) (*pb.Pl
 	if err != nil {
 		return nil, scanPaths(err)
 	}
-	return &pb.PlanScanResponse{Plan: wireScanPlan(res)}, nil
+	return &pb.PlanScanResponse{Plan: wireScanPlan(res), Convention: wireConvention(bounds.Angular)}, nil
 }

@@ -851,7 +851,10 @@ func (x *PlanScanRequest) GetShortScan() bool {
 type PlanScanResponse struct {
 	state protoimpl.MessageState `protogen:"open.v1"`
 	// The plan with its caution.
-	Plan          *ScanPlan `protobuf:"bytes,1,opt,name=plan,proto3" json:"plan,omitempty"`
+	Plan *ScanPlan `protobuf:"bytes,1,opt,name=plan,proto3" json:"plan,omitempty"`
+	// The convention of the band limit: always the angular one (radians per
+	// length unit), as in the request.
+	Convention    *ConventionUsed `protobuf:"bytes,2,opt,name=convention,proto3" json:"convention,omitempty"`
 	unknownFields protoimpl.UnknownFields
 	sizeCache     protoimpl.SizeCache
 }
@@ -889,6 +892,13 @@ func (*PlanScanResponse) Descriptor() ([]byte, []int) {
 func (x *PlanScanResponse) GetPlan() *ScanPlan {
 	if x != nil {
 		return x.Plan
+	}
+	return nil
+}
+
+func (x *PlanScanResponse) GetConvention() *ConventionUsed {
+	if x != nil {
+		return x.Convention
 	}
 	return nil
 }
@@ -2096,9 +2106,12 @@ const file_foldbound_v1_service_proto_rawDesc = "" +
 	"resolution\x12#\n" +
 	"\rsource_radius\x18\x05 \x01(\x01R\fsourceRadius\x12\x1d\n" +
 	"\n" +
-	"short_scan\x18\x06 \x01(\bR\tshortScan\">\n" +
+	"short_scan\x18\x06 \x01(\bR\tshortScan\"|\n" +
 	"\x10PlanScanResponse\x12*\n" +
-	"\x04plan\x18\x01 \x01(\v2\x16.foldbound.v1.ScanPlanR\x04plan\"\x8b\x02\n" +
+	"\x04plan\x18\x01 \x01(\v2\x16.foldbound.v1.ScanPlanR\x04plan\x12<\n" +
+	"\n" +
+	"convention\x18\x02 \x01(\v2\x1c.foldbound.v1.ConventionUsedR\n" +
+	"convention\"\x8b\x02\n" +
 	"\x16LatticeAliasSumRequest\x12,\n" +
 	"\x06family\x18\x01 \x01(\v2\x14.foldbound.v1.FamilyR\x06family\x12/\n" +
 	"\alattice\x18\x02 \x01(\v2\x15.foldbound.v1.LatticeR\alattice\x12\x14\n" +
@@ -2293,63 +2306,64 @@ var file_foldbound_v1_service_proto_depIdxs = []int32{
 	24, // 29: foldbound.v1.PlanGridResponse.convention:type_name -> foldbound.v1.ConventionUsed
 	31, // 30: foldbound.v1.PlanScanRequest.geometry:type_name -> foldbound.v1.ScanGeometry
 	32, // 31: foldbound.v1.PlanScanResponse.plan:type_name -> foldbound.v1.ScanPlan
-	18, // 32: foldbound.v1.LatticeAliasSumRequest.family:type_name -> foldbound.v1.Family
-	33, // 33: foldbound.v1.LatticeAliasSumRequest.lattice:type_name -> foldbound.v1.Lattice
-	20, // 34: foldbound.v1.LatticeAliasSumRequest.convention:type_name -> foldbound.v1.Convention
-	21, // 35: foldbound.v1.LatticeAliasSumRequest.settings:type_name -> foldbound.v1.Settings
-	22, // 36: foldbound.v1.LatticeAliasSumResponse.sampled:type_name -> foldbound.v1.ComplexInterval
-	22, // 37: foldbound.v1.LatticeAliasSumResponse.exact:type_name -> foldbound.v1.ComplexInterval
-	22, // 38: foldbound.v1.LatticeAliasSumResponse.alias:type_name -> foldbound.v1.ComplexInterval
-	34, // 39: foldbound.v1.LatticeAliasSumResponse.method:type_name -> foldbound.v1.LatticeMethod
-	24, // 40: foldbound.v1.LatticeAliasSumResponse.convention:type_name -> foldbound.v1.ConventionUsed
-	35, // 41: foldbound.v1.LatticeAliasSumResponse.lattice:type_name -> foldbound.v1.LatticeInfo
-	36, // 42: foldbound.v1.CompareLatticesRequest.spectral:type_name -> foldbound.v1.EnvelopeTerm
-	33, // 43: foldbound.v1.CompareLatticesRequest.candidates:type_name -> foldbound.v1.Lattice
-	20, // 44: foldbound.v1.CompareLatticesRequest.convention:type_name -> foldbound.v1.Convention
-	21, // 45: foldbound.v1.CompareLatticesRequest.settings:type_name -> foldbound.v1.Settings
-	37, // 46: foldbound.v1.CompareLatticesResponse.reference:type_name -> foldbound.v1.LatticePlan
-	37, // 47: foldbound.v1.CompareLatticesResponse.plans:type_name -> foldbound.v1.LatticePlan
-	24, // 48: foldbound.v1.CompareLatticesResponse.convention:type_name -> foldbound.v1.ConventionUsed
-	38, // 49: foldbound.v1.PlanKernelRequest.shape:type_name -> foldbound.v1.KernelShape
-	39, // 50: foldbound.v1.PlanKernelResponse.options:type_name -> foldbound.v1.KernelOption
-	40, // 51: foldbound.v1.PlanKernelResponse.verification:type_name -> foldbound.v1.KernelCheck
-	0,  // 52: foldbound.v1.BatchRequest.alias_sum:type_name -> foldbound.v1.AliasSumRequest
-	2,  // 53: foldbound.v1.BatchRequest.error_budget:type_name -> foldbound.v1.ErrorBudgetRequest
-	4,  // 54: foldbound.v1.BatchRequest.plan_grid:type_name -> foldbound.v1.PlanGridRequest
-	6,  // 55: foldbound.v1.BatchRequest.plan_scan:type_name -> foldbound.v1.PlanScanRequest
-	8,  // 56: foldbound.v1.BatchRequest.lattice_alias_sum:type_name -> foldbound.v1.LatticeAliasSumRequest
-	10, // 57: foldbound.v1.BatchRequest.compare_lattices:type_name -> foldbound.v1.CompareLatticesRequest
-	12, // 58: foldbound.v1.BatchRequest.plan_kernel:type_name -> foldbound.v1.PlanKernelRequest
-	1,  // 59: foldbound.v1.BatchResponse.alias_sum:type_name -> foldbound.v1.AliasSumResponse
-	3,  // 60: foldbound.v1.BatchResponse.error_budget:type_name -> foldbound.v1.ErrorBudgetResponse
-	5,  // 61: foldbound.v1.BatchResponse.plan_grid:type_name -> foldbound.v1.PlanGridResponse
-	7,  // 62: foldbound.v1.BatchResponse.plan_scan:type_name -> foldbound.v1.PlanScanResponse
-	9,  // 63: foldbound.v1.BatchResponse.lattice_alias_sum:type_name -> foldbound.v1.LatticeAliasSumResponse
-	11, // 64: foldbound.v1.BatchResponse.compare_lattices:type_name -> foldbound.v1.CompareLatticesResponse
-	13, // 65: foldbound.v1.BatchResponse.plan_kernel:type_name -> foldbound.v1.PlanKernelResponse
-	16, // 66: foldbound.v1.BatchResponse.error:type_name -> foldbound.v1.ItemError
-	17, // 67: foldbound.v1.ItemError.field_violations:type_name -> foldbound.v1.FieldViolation
-	0,  // 68: foldbound.v1.SamplingService.AliasSum:input_type -> foldbound.v1.AliasSumRequest
-	2,  // 69: foldbound.v1.SamplingService.ErrorBudget:input_type -> foldbound.v1.ErrorBudgetRequest
-	4,  // 70: foldbound.v1.SamplingService.PlanGrid:input_type -> foldbound.v1.PlanGridRequest
-	6,  // 71: foldbound.v1.SamplingService.PlanScan:input_type -> foldbound.v1.PlanScanRequest
-	8,  // 72: foldbound.v1.SamplingService.LatticeAliasSum:input_type -> foldbound.v1.LatticeAliasSumRequest
-	10, // 73: foldbound.v1.SamplingService.CompareLattices:input_type -> foldbound.v1.CompareLatticesRequest
-	12, // 74: foldbound.v1.SamplingService.PlanKernel:input_type -> foldbound.v1.PlanKernelRequest
-	14, // 75: foldbound.v1.SamplingService.Batch:input_type -> foldbound.v1.BatchRequest
-	1,  // 76: foldbound.v1.SamplingService.AliasSum:output_type -> foldbound.v1.AliasSumResponse
-	3,  // 77: foldbound.v1.SamplingService.ErrorBudget:output_type -> foldbound.v1.ErrorBudgetResponse
-	5,  // 78: foldbound.v1.SamplingService.PlanGrid:output_type -> foldbound.v1.PlanGridResponse
-	7,  // 79: foldbound.v1.SamplingService.PlanScan:output_type -> foldbound.v1.PlanScanResponse
-	9,  // 80: foldbound.v1.SamplingService.LatticeAliasSum:output_type -> foldbound.v1.LatticeAliasSumResponse
-	11, // 81: foldbound.v1.SamplingService.CompareLattices:output_type -> foldbound.v1.CompareLatticesResponse
-	13, // 82: foldbound.v1.SamplingService.PlanKernel:output_type -> foldbound.v1.PlanKernelResponse
-	15, // 83: foldbound.v1.SamplingService.Batch:output_type -> foldbound.v1.BatchResponse
-	76, // [76:84] is the sub-list for method output_type
-	68, // [68:76] is the sub-list for method input_type
-	68, // [68:68] is the sub-list for extension type_name
-	68, // [68:68] is the sub-list for extension extendee
-	0,  // [0:68] is the sub-list for field type_name
+	24, // 32: foldbound.v1.PlanScanResponse.convention:type_name -> foldbound.v1.ConventionUsed
+	18, // 33: foldbound.v1.LatticeAliasSumRequest.family:type_name -> foldbound.v1.Family
+	33, // 34: foldbound.v1.LatticeAliasSumRequest.lattice:type_name -> foldbound.v1.Lattice
+	20, // 35: foldbound.v1.LatticeAliasSumRequest.convention:type_name -> foldbound.v1.Convention
+	21, // 36: foldbound.v1.LatticeAliasSumRequest.settings:type_name -> foldbound.v1.Settings
+	22, // 37: foldbound.v1.LatticeAliasSumResponse.sampled:type_name -> foldbound.v1.ComplexInterval
+	22, // 38: foldbound.v1.LatticeAliasSumResponse.exact:type_name -> foldbound.v1.ComplexInterval
+	22, // 39: foldbound.v1.LatticeAliasSumResponse.alias:type_name -> foldbound.v1.ComplexInterval
+	34, // 40: foldbound.v1.LatticeAliasSumResponse.method:type_name -> foldbound.v1.LatticeMethod
+	24, // 41: foldbound.v1.LatticeAliasSumResponse.convention:type_name -> foldbound.v1.ConventionUsed
+	35, // 42: foldbound.v1.LatticeAliasSumResponse.lattice:type_name -> foldbound.v1.LatticeInfo
+	36, // 43: foldbound.v1.CompareLatticesRequest.spectral:type_name -> foldbound.v1.EnvelopeTerm
+	33, // 44: foldbound.v1.CompareLatticesRequest.candidates:type_name -> foldbound.v1.Lattice
+	20, // 45: foldbound.v1.CompareLatticesRequest.convention:type_name -> foldbound.v1.Convention
+	21, // 46: foldbound.v1.CompareLatticesRequest.settings:type_name -> foldbound.v1.Settings
+	37, // 47: foldbound.v1.CompareLatticesResponse.reference:type_name -> foldbound.v1.LatticePlan
+	37, // 48: foldbound.v1.CompareLatticesResponse.plans:type_name -> foldbound.v1.LatticePlan
+	24, // 49: foldbound.v1.CompareLatticesResponse.convention:type_name -> foldbound.v1.ConventionUsed
+	38, // 50: foldbound.v1.PlanKernelRequest.shape:type_name -> foldbound.v1.KernelShape
+	39, // 51: foldbound.v1.PlanKernelResponse.options:type_name -> foldbound.v1.KernelOption
+	40, // 52: foldbound.v1.PlanKernelResponse.verification:type_name -> foldbound.v1.KernelCheck
+	0,  // 53: foldbound.v1.BatchRequest.alias_sum:type_name -> foldbound.v1.AliasSumRequest
+	2,  // 54: foldbound.v1.BatchRequest.error_budget:type_name -> foldbound.v1.ErrorBudgetRequest
+	4,  // 55: foldbound.v1.BatchRequest.plan_grid:type_name -> foldbound.v1.PlanGridRequest
+	6,  // 56: foldbound.v1.BatchRequest.plan_scan:type_name -> foldbound.v1.PlanScanRequest
+	8,  // 57: foldbound.v1.BatchRequest.lattice_alias_sum:type_name -> foldbound.v1.LatticeAliasSumRequest
+	10, // 58: foldbound.v1.BatchRequest.compare_lattices:type_name -> foldbound.v1.CompareLatticesRequest
+	12, // 59: foldbound.v1.BatchRequest.plan_kernel:type_name -> foldbound.v1.PlanKernelRequest
+	1,  // 60: foldbound.v1.BatchResponse.alias_sum:type_name -> foldbound.v1.AliasSumResponse
+	3,  // 61: foldbound.v1.BatchResponse.error_budget:type_name -> foldbound.v1.ErrorBudgetResponse
+	5,  // 62: foldbound.v1.BatchResponse.plan_grid:type_name -> foldbound.v1.PlanGridResponse
+	7,  // 63: foldbound.v1.BatchResponse.plan_scan:type_name -> foldbound.v1.PlanScanResponse
+	9,  // 64: foldbound.v1.BatchResponse.lattice_alias_sum:type_name -> foldbound.v1.LatticeAliasSumResponse
+	11, // 65: foldbound.v1.BatchResponse.compare_lattices:type_name -> foldbound.v1.CompareLatticesResponse
+	13, // 66: foldbound.v1.BatchResponse.plan_kernel:type_name -> foldbound.v1.PlanKernelResponse
+	16, // 67: foldbound.v1.BatchResponse.error:type_name -> foldbound.v1.ItemError
+	17, // 68: foldbound.v1.ItemError.field_violations:type_name -> foldbound.v1.FieldViolation
+	0,  // 69: foldbound.v1.SamplingService.AliasSum:input_type -> foldbound.v1.AliasSumRequest
+	2,  // 70: foldbound.v1.SamplingService.ErrorBudget:input_type -> foldbound.v1.ErrorBudgetRequest
+	4,  // 71: foldbound.v1.SamplingService.PlanGrid:input_type -> foldbound.v1.PlanGridRequest
+	6,  // 72: foldbound.v1.SamplingService.PlanScan:input_type -> foldbound.v1.PlanScanRequest
+	8,  // 73: foldbound.v1.SamplingService.LatticeAliasSum:input_type -> foldbound.v1.LatticeAliasSumRequest
+	10, // 74: foldbound.v1.SamplingService.CompareLattices:input_type -> foldbound.v1.CompareLatticesRequest
+	12, // 75: foldbound.v1.SamplingService.PlanKernel:input_type -> foldbound.v1.PlanKernelRequest
+	14, // 76: foldbound.v1.SamplingService.Batch:input_type -> foldbound.v1.BatchRequest
+	1,  // 77: foldbound.v1.SamplingService.AliasSum:output_type -> foldbound.v1.AliasSumResponse
+	3,  // 78: foldbound.v1.SamplingService.ErrorBudget:output_type -> foldbound.v1.ErrorBudgetResponse
+	5,  // 79: foldbound.v1.SamplingService.PlanGrid:output_type -> foldbound.v1.PlanGridResponse
+	7,  // 80: foldbound.v1.SamplingService.PlanScan:output_type -> foldbound.v1.PlanScanResponse
+	9,  // 81: foldbound.v1.SamplingService.LatticeAliasSum:output_type -> foldbound.v1.LatticeAliasSumResponse
+	11, // 82: foldbound.v1.SamplingService.CompareLattices:output_type -> foldbound.v1.CompareLatticesResponse
+	13, // 83: foldbound.v1.SamplingService.PlanKernel:output_type -> foldbound.v1.PlanKernelResponse
+	15, // 84: foldbound.v1.SamplingService.Batch:output_type -> foldbound.v1.BatchResponse
+	77, // [77:85] is the sub-list for method output_type
+	69, // [69:77] is the sub-list for method input_type
+	69, // [69:69] is the sub-list for extension type_name
+	69, // [69:69] is the sub-list for extension extendee
+	0,  // [0:69] is the sub-list for field type_name
 }
 
 func init() { file_foldbound_v1_service_proto_init() }
