@@ -65,6 +65,9 @@ func AliasSum(ctx context.Context, f Family, g Grid, xi float64, set Settings) (
 		return SampledSum{}, err
 	}
 	s := newSummer(ctx, f, g, Point(xi), Point(g.Shift), false, set)
+	if err := validateEnvelopes(s.spat, s.spec); err != nil {
+		return SampledSum{}, err
+	}
 	res, err := s.run()
 	if err != nil {
 		return SampledSum{}, err
@@ -76,7 +79,7 @@ func AliasSum(ctx context.Context, f Family, g Grid, xi float64, set Settings) (
 }
 
 func checkAliasArgs(f Family, g Grid, xi float64, set Settings) error {
-	if err := Validate(f); err != nil {
+	if err := validateParams(f); err != nil {
 		return err
 	}
 	if err := g.Validate("grid"); err != nil {
@@ -104,6 +107,9 @@ type aliasSummer struct {
 	terms int64 // terms summed so far, against the work limit
 
 	spec, spat Envelope // the family's envelopes, fetched once
+
+	first     float64 // spectralEstimate(P, 0), once computed
+	haveFirst bool
 }
 
 // newSummer returns a summer for f on g at frequencies xi and shifts shift.
@@ -263,11 +269,12 @@ const autoSpectralCopies = 32
 // trialWorthwhile reports whether autoSpectralCopies copies on each side
 // may reach the goal, by the float64 estimate of the tail after them.
 func (s *aliasSummer) trialWorthwhile(P Interval, F Complex) bool {
-	first := s.spectralEstimate(P, 0)
+	first := s.firstCopies(P)
 	if math.IsInf(first, 1) {
 		return false
 	}
-	return s.spectralEstimate(P, autoSpectralCopies) <= s.goal(math.Max(first, 0x1p-60*F.Mag()))
+	goal := s.goal(math.Max(first, 0x1p-60*F.Mag()))
+	return first <= goal || s.spectralEstimate(P, autoSpectralCopies) <= goal
 }
 
 // chooseSide picks the spectral side when its alias sum needs no more
@@ -297,6 +304,15 @@ func (s *aliasSummer) spectralTail(P Interval, L int64) float64 {
 	spec := s.spec
 	next := P.Scale(float64(L + 1))
 	return addUp(spec.RayTail(s.xi.Add(next), 1, P.Lo), spec.RayTail(s.xi.Sub(next), -1, P.Lo))
+}
+
+// firstCopies returns spectralEstimate(P, 0), computed once per summer.
+func (s *aliasSummer) firstCopies(P Interval) float64 {
+	if !s.haveFirst {
+		s.first = s.spectralEstimate(P, 0)
+		s.haveFirst = true
+	}
+	return s.first
 }
 
 // spectralEstimate approximates spectralTail in float64 (not a bound).
@@ -337,7 +353,7 @@ func (s *aliasSummer) spectralTermsEstimate(P Interval, goal float64) int64 {
 // e^{i2πls/h}, adding copies until the envelope bounds the rest below the
 // goal.
 func (s *aliasSummer) spectralAlias(P Interval, F Complex, limit int64) (Complex, Method, bool, error) {
-	tail := 2 * s.spectralEstimate(P, 0)
+	tail := 2 * s.firstCopies(P)
 	if math.IsInf(tail, 1) {
 		return Complex{}, Method{}, false, invalidf("family", "%v: spectral envelope is not summable; the spectral side cannot be used", s.f)
 	}
@@ -351,16 +367,17 @@ func (s *aliasSummer) spectralAlias(P Interval, F Complex, limit int64) (Complex
 	// far (not only to their sum, which may be 0 when every copy sits on a
 	// zero of F); before any copy is summed, to the estimate of the first.
 	first := tail / 2
+	floor := 0x1p-60 * F.Mag()
 	var sum Complex
-	var sumAbs float64
+	var sumAbs float64 // Σ |copies| ≥ |sum|, up to a factor √2
 	var L int64
 	rigorous := false // whether tail is the rigorous bound or an estimate
 	for {
-		scale := math.Max(sum.Mag(), sumAbs)
+		scale := sumAbs
 		if scale == 0 {
 			scale = 0x1p-60 * first
 		}
-		goal := s.goal(math.Max(scale, 0x1p-60*F.Mag()))
+		goal := s.goal(math.Max(scale, floor))
 		if tail <= goal && (L > 0 || tail == 0 || tail <= s.set.Tol) {
 			if rigorous {
 				break
@@ -382,7 +399,7 @@ func (s *aliasSummer) spectralAlias(P Interval, F Complex, limit int64) (Complex
 		lp := P.Scale(float64(L))
 		right := s.f.Transform(s.xi.Add(lp))
 		left := s.f.Transform(s.xi.Sub(lp))
-		sumAbs += right.Mag() + left.Mag()
+		sumAbs += right.Re.Mag() + right.Im.Mag() + left.Re.Mag() + left.Im.Mag()
 		switch {
 		case s.abs:
 			sum = sum.Add(RealC(right.Abs().Add(left.Abs())))

@@ -269,6 +269,9 @@ func FamilyBudget(ctx context.Context, f Family, g Grid, band Band, opt BudgetOp
 	if err := checkAliasArgs(f, g, band.Center, opt.Settings); err != nil {
 		return Budget{}, err
 	}
+	if err := validateEnvelopes(f.Spatial(), f.Spectral()); err != nil {
+		return Budget{}, err
+	}
 	if err := band.Validate("band"); err != nil {
 		return Budget{}, err
 	}

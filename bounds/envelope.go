@@ -439,8 +439,11 @@ func (t EnvelopeTerm) estimate(d, h float64) float64 {
 		return A * math.Exp(-t.Rate*d) / -math.Expm1(-t.Rate*h)
 	case Gaussian:
 		u := d / t.Width
-		rho := math.Exp(-(2*d*h + h*h) / (2 * t.Width * t.Width))
-		return A * math.Exp(-0.5*u*u) / (1 - rho)
+		g := A * math.Exp(-0.5*u*u)
+		if r := (2*d*h + h*h) / (2 * t.Width * t.Width); r < 8 {
+			return g / -math.Expm1(-r) // 1/(1-ρ); beyond r = 8 it is 1 to 3e-4
+		}
+		return g
 	case Algebraic:
 		if t.Power <= 1 {
 			return math.Inf(1)

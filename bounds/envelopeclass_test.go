@@ -3,6 +3,7 @@ package bounds
 import (
 	"context"
 	"fmt"
+	"math"
 	"sort"
 	"testing"
 )
@@ -13,9 +14,17 @@ func envelopeClassFamilies() []Family {
 	return []Family{
 		GaussianFamily{Sigma: 0.7},
 		GaussianFamily{Sigma: 1.6},
+		ExponentialFamily{Rate: 1.3},
+		LorentzianFamily{Width: 0.8},
+		SechFamily{Width: 0.9},
+		SechSquaredFamily{Width: 1.2},
+		WavePacketFamily{Sigma: 1, Omega0: 2.5},
+		FejerFamily{Omega: 3},
 		BSplineFamily{Order: 3},
 		BSplineFamily{Order: 6},
 		KaiserBesselFamily{Width: 4, Beta: 9},
+		ShiftFamily{By: 0.4, Of: SechFamily{Width: 0.6}},
+		ModulationFamily{Omega0: 1.5, Of: LorentzianFamily{Width: 1.1}},
 	}
 }
 
@@ -32,12 +41,12 @@ func TestEnvelopeBoundsCoverExactErrors(t *testing.T) {
 	for _, f := range envelopeClassFamilies() {
 		spat, spec := f.Spatial(), f.Spectral()
 		summable := spec.RayTail(Point(100), 1, 1) < 1e300
-		for _, h := range []float64{0.25, 0.5, 0.9, 1.4} {
+		for _, h := range []float64{0.25, 0.5, 0.9, 1.4, 2.2} {
 			for _, shift := range []float64{0, 0.13, -0.37} {
 				for _, n := range []int64{0, 5, 12, 25} {
 					for _, xi := range []float64{0, 0.6} {
 						grid := Grid{Step: h, Shift: shift * h, Count: n}
-						r, err := AliasSum(ctx, f, grid, xi, Settings{})
+						r, err := AliasSum(ctx, f, grid, xi, Settings{MaxTerms: 1 << 22})
 						if err != nil {
 							t.Fatalf("%v %+v ξ=%g: %v", f, grid, xi, err)
 						}
@@ -80,5 +89,35 @@ func logRatios(t *testing.T, ratios map[string][]float64) {
 		r := ratios[k]
 		sort.Float64s(r)
 		t.Log(fmt.Sprintf("bound/true %-40s median %9.4g  max %9.4g  (%d cases)", k, r[len(r)/2], r[len(r)-1], len(r)))
+	}
+}
+
+// For the Lorentzian 1/(a²+x²) at shift 0 the exponential-envelope alias
+// bound 2B·cosh(βξ)/(e^{2πβ/h} - 1) is an equality (math.md; the spectral
+// envelope (π/a)e^{-a|ξ|} is the transform itself and every copy has the
+// same phase), for |ξ| ≤ π/h: EnvelopeBudget's aliasing must equal the
+// exact alias sum to 1e-12.
+func TestLorentzianEnvelopeBoundIsTight(t *testing.T) {
+	ctx := context.Background()
+	for _, a := range []float64{0.5, 1, 2} {
+		f := LorentzianFamily{Width: a}
+		for _, h := range []float64{0.3, 0.8, 1.5, 3} {
+			for _, frac := range []float64{0, 0.3, 0.9} {
+				xi := frac * math.Pi / h
+				grid := Grid{Step: h}
+				r, err := AliasSum(ctx, f, grid, xi, Settings{})
+				if err != nil {
+					t.Fatal(err)
+				}
+				b, err := EnvelopeBudget(ctx, f.Spatial(), f.Spectral(), grid, Band{Center: xi}, BudgetOptions{})
+				if err != nil {
+					t.Fatal(err)
+				}
+				exact := r.Alias.Re.Mid()
+				if ratio := b.Aliasing / exact; ratio < 1 || ratio > 1+1e-12 {
+					t.Errorf("a=%g h=%g ξ=%g: envelope bound / exact alias = %.17g, want 1 to 1e-12", a, h, xi, ratio)
+				}
+			}
+		}
 	}
 }

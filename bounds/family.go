@@ -33,21 +33,33 @@ type Validator interface {
 }
 
 // Validate checks a family, and the families it is built from, for
-// parameters outside their domains. It returns a *ParamError wrapping
-// ErrInvalid, or nil.
+// parameters outside their domains, and its envelopes for values outside
+// the float64 range. It returns a *ParamError wrapping ErrInvalid, or nil.
 func Validate(f Family) error {
+	if err := validateParams(f); err != nil {
+		return err
+	}
+	return validateEnvelopes(f.Spatial(), f.Spectral())
+}
+
+// validateParams checks a family's own parameters (Validator).
+func validateParams(f Family) error {
 	if f == nil {
 		return invalidf("family", "missing")
 	}
 	if v, ok := f.(Validator); ok {
-		if err := v.Validate(); err != nil {
-			return err
-		}
+		return v.Validate()
 	}
-	if err := f.Spatial().Validate("spatial"); err != nil {
+	return nil
+}
+
+// validateEnvelopes checks a family's envelopes, fetched once by the
+// caller.
+func validateEnvelopes(spatial, spectral Envelope) error {
+	if err := spatial.Validate("spatial"); err != nil {
 		return err
 	}
-	return f.Spectral().Validate("spectral")
+	return spectral.Validate("spectral")
 }
 
 // FamilyND is a function f on R^n (1 ≤ n ≤ MaxDim) with known transform
