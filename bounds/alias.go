@@ -273,6 +273,11 @@ func (s *aliasSummer) trialWorthwhile(P Interval, F Complex) bool {
 	if math.IsInf(first, 1) {
 		return false
 	}
+	if !s.spec.hasDecay(Algebraic) {
+		// Gaussian and exponential copies fall off geometrically or faster
+		// and band limits end: the trial is cheap whatever it finds.
+		return true
+	}
 	goal := s.goal(math.Max(first, 0x1p-60*F.Mag()))
 	return first <= goal || s.spectralEstimate(P, autoSpectralCopies) <= goal
 }
@@ -325,7 +330,11 @@ func (s *aliasSummer) spectralEstimate(P Interval, L int64) float64 {
 	p := P.Mid()
 	next := p * float64(L+1)
 	x := s.xi.Mid()
-	return s.spec.RayEstimate(x+next, 1, p) + s.spec.RayEstimate(x-next, -1, p)
+	right := s.spec.RayEstimate(x+next, 1, p)
+	if x == 0 && s.spec.centred() {
+		return 2 * right
+	}
+	return right + s.spec.RayEstimate(x-next, -1, p)
 }
 
 // spectralTermsEstimate returns the number of alias copies on each side

@@ -484,3 +484,13 @@ func (e Envelope) centred() bool {
 	}
 	return true
 }
+
+// hasDecay reports whether some term has decay d.
+func (e Envelope) hasDecay(d Decay) bool {
+	for _, t := range e {
+		if t.Decay == d {
+			return true
+		}
+	}
+	return false
+}
