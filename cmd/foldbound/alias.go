@@ -29,14 +29,7 @@ each as a certified enclosure.`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error {
 			req := &pb.AliasSumRequest{}
-			if call.request != "" {
-				if err := onlyRequest(cmd); err != nil {
-					return err
-				}
-				if err := call.readRequest(req); err != nil {
-					return err
-				}
-			} else {
+			build := func() error {
 				f, _, dim, err := subj.subject()
 				if err != nil {
 					return err
@@ -51,20 +44,9 @@ each as a certified enclosure.`,
 					return err
 				}
 				req.Family = f
+				return nil
 			}
-			s, err := call.dial(cmd.Context(), stderr)
-			if err != nil {
-				return err
-			}
-			defer s.stop()
-			res, err := s.AliasSum(cmd.Context(), req)
-			if err != nil {
-				return err
-			}
-			if call.json {
-				return printJSON(stdout, res)
-			}
-			return printAliasSum(stdout, req, res)
+			return ask(cmd, &call, stdout, stderr, req, build, (*session).AliasSum, printAliasSum)
 		},
 	}
 	fs := cmd.Flags()

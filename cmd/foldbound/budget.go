@@ -32,14 +32,7 @@ terms), at one frequency or as a certified supremum over a band
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error {
 			req := &pb.ErrorBudgetRequest{}
-			if call.request != "" {
-				if err := onlyRequest(cmd); err != nil {
-					return err
-				}
-				if err := call.readRequest(req); err != nil {
-					return err
-				}
-			} else {
+			build := func() error {
 				f, env, dim, err := subj.subject()
 				if err != nil {
 					return err
@@ -64,20 +57,9 @@ terms), at one frequency or as a certified supremum over a band
 				}
 				req.WorstCaseShift = anyShift
 				req.SampleUlps = sampleUlps
+				return nil
 			}
-			s, err := call.dial(cmd.Context(), stderr)
-			if err != nil {
-				return err
-			}
-			defer s.stop()
-			res, err := s.ErrorBudget(cmd.Context(), req)
-			if err != nil {
-				return err
-			}
-			if call.json {
-				return printJSON(stdout, res)
-			}
-			return printErrorBudget(stdout, req, res)
+			return ask(cmd, &call, stdout, stderr, req, build, (*session).ErrorBudget, printErrorBudget)
 		},
 	}
 	fs := cmd.Flags()

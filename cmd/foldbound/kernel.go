@@ -38,14 +38,7 @@ non-uniform DFT on N random points.`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error {
 			req := &pb.PlanKernelRequest{}
-			if call.request != "" {
-				if err := onlyRequest(cmd); err != nil {
-					return err
-				}
-				if err := call.readRequest(req); err != nil {
-					return err
-				}
-			} else {
+			build := func() error {
 				if !cmd.Flags().Changed("tol") {
 					return fmt.Errorf("--tol is required")
 				}
@@ -60,20 +53,9 @@ non-uniform DFT on N random points.`,
 				default:
 					return fmt.Errorf("--shape %q: want kaiser-bessel or gaussian", shape)
 				}
+				return nil
 			}
-			s, err := call.dial(cmd.Context(), stderr)
-			if err != nil {
-				return err
-			}
-			defer s.stop()
-			res, err := s.PlanKernel(cmd.Context(), req)
-			if err != nil {
-				return err
-			}
-			if call.json {
-				return printJSON(stdout, res)
-			}
-			return printKernel(stdout, req, res)
+			return ask(cmd, &call, stdout, stderr, req, build, (*session).PlanKernel, printKernel)
 		},
 	}
 	fs := cmd.Flags()

@@ -114,14 +114,7 @@ func newLatticeSumCmd(stdout, stderr io.Writer) *cobra.Command {
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error {
 			req := &pb.LatticeAliasSumRequest{}
-			if call.request != "" {
-				if err := onlyRequest(cmd); err != nil {
-					return err
-				}
-				if err := call.readRequest(req); err != nil {
-					return err
-				}
-			} else {
+			build := func() error {
 				if family == "" {
 					return errors.New("--family is required")
 				}
@@ -143,20 +136,9 @@ func newLatticeSumCmd(stdout, stderr io.Writer) *cobra.Command {
 				if req.Settings, req.Convention, err = set.settings(); err != nil {
 					return err
 				}
+				return nil
 			}
-			s, err := call.dial(cmd.Context(), stderr)
-			if err != nil {
-				return err
-			}
-			defer s.stop()
-			res, err := s.LatticeAliasSum(cmd.Context(), req)
-			if err != nil {
-				return err
-			}
-			if call.json {
-				return printJSON(stdout, res)
-			}
-			return printLatticeSum(stdout, req, res)
+			return ask(cmd, &call, stdout, stderr, req, build, (*session).LatticeAliasSum, printLatticeSum)
 		},
 	}
 	fs := cmd.Flags()
@@ -193,14 +175,7 @@ by samples per unit volume with the saving against the rectangular grid.`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error {
 			req := &pb.CompareLatticesRequest{}
-			if call.request != "" {
-				if err := onlyRequest(cmd); err != nil {
-					return err
-				}
-				if err := call.readRequest(req); err != nil {
-					return err
-				}
-			} else {
+			build := func() error {
 				terms, err := parseEnvelope(spectral)
 				if err != nil {
 					return err
@@ -219,20 +194,9 @@ by samples per unit volume with the saving against the rectangular grid.`,
 				if req.Settings, req.Convention, err = set.settings(); err != nil {
 					return err
 				}
+				return nil
 			}
-			s, err := call.dial(cmd.Context(), stderr)
-			if err != nil {
-				return err
-			}
-			defer s.stop()
-			res, err := s.CompareLattices(cmd.Context(), req)
-			if err != nil {
-				return err
-			}
-			if call.json {
-				return printJSON(stdout, res)
-			}
-			return printCompare(stdout, req, res)
+			return ask(cmd, &call, stdout, stderr, req, build, (*session).CompareLattices, printCompare)
 		},
 	}
 	fs := cmd.Flags()

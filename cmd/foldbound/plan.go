@@ -38,14 +38,7 @@ integral or for a sampled transform over a band, for every shift unless
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error {
 			req := &pb.PlanGridRequest{}
-			if call.request != "" {
-				if err := onlyRequest(cmd); err != nil {
-					return err
-				}
-				if err := call.readRequest(req); err != nil {
-					return err
-				}
-			} else {
+			build := func() error {
 				f, env, dim, err := subj.subject()
 				if err != nil {
 					return err
@@ -81,20 +74,9 @@ integral or for a sampled transform over a band, for every shift unless
 				if req.Settings, req.Convention, err = set.settings(); err != nil {
 					return err
 				}
+				return nil
 			}
-			s, err := call.dial(cmd.Context(), stderr)
-			if err != nil {
-				return err
-			}
-			defer s.stop()
-			res, err := s.PlanGrid(cmd.Context(), req)
-			if err != nil {
-				return err
-			}
-			if call.json {
-				return printJSON(stdout, res)
-			}
-			return printPlan(stdout, req, res)
+			return ask(cmd, &call, stdout, stderr, req, build, (*session).PlanGrid, printPlan)
 		},
 	}
 	fs := cmd.Flags()

@@ -13,6 +13,7 @@ import (
 	"github.com/rs/zerolog"
 	"github.com/spf13/cobra"
 	"github.com/spf13/pflag"
+	"google.golang.org/grpc"
 	"google.golang.org/protobuf/encoding/protojson"
 	"google.golang.org/protobuf/proto"
 
@@ -130,6 +131,38 @@ func printJSON(w io.Writer, m proto.Message) error {
 	}
 	_, err = fmt.Fprintf(w, "%s\n", b)
 	return err
+}
+
+// ask sends one request and prints its answer. The request comes from
+// --request, or build fills it from the flags; the answer is printed as
+// protojson with --json, otherwise by human.
+func ask[Req, Res proto.Message](cmd *cobra.Command, call *callFlags, stdout, stderr io.Writer, req Req,
+	build func() error,
+	rpc func(*session, context.Context, Req, ...grpc.CallOption) (Res, error),
+	human func(io.Writer, Req, Res) error) error {
+	if call.request != "" {
+		if err := onlyRequest(cmd); err != nil {
+			return err
+		}
+		if err := call.readRequest(req); err != nil {
+			return err
+		}
+	} else if err := build(); err != nil {
+		return err
+	}
+	s, err := call.dial(cmd.Context(), stderr)
+	if err != nil {
+		return err
+	}
+	defer s.stop()
+	res, err := rpc(s, cmd.Context(), req)
+	if err != nil {
+		return err
+	}
+	if call.json {
+		return printJSON(stdout, res)
+	}
+	return human(stdout, req, res)
 }
 
 // onlyRequest reports flags given together with --request.

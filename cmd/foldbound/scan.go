@@ -35,14 +35,7 @@ matters for licensed practice and local regulations.`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error {
 			req := &pb.PlanScanRequest{}
-			if call.request != "" {
-				if err := onlyRequest(cmd); err != nil {
-					return err
-				}
-				if err := call.readRequest(req); err != nil {
-					return err
-				}
-			} else {
+			build := func() error {
 				switch strings.ToLower(geometry) {
 				case "parallel":
 					req.Geometry = pb.ScanGeometry_SCAN_GEOMETRY_PARALLEL_BEAM
@@ -53,20 +46,11 @@ matters for licensed practice and local regulations.`,
 				}
 				req.Radius, req.Bandwidth, req.Resolution = radius, bandwidth, resolution
 				req.SourceRadius, req.ShortScan = sourceRadius, shortScan
+				return nil
 			}
-			s, err := call.dial(cmd.Context(), stderr)
-			if err != nil {
-				return err
-			}
-			defer s.stop()
-			res, err := s.PlanScan(cmd.Context(), req)
-			if err != nil {
-				return err
-			}
-			if call.json {
-				return printJSON(stdout, res)
-			}
-			return printScan(stdout, res.GetPlan())
+			return ask(cmd, &call, stdout, stderr, req, build, (*session).PlanScan, func(w io.Writer, req *pb.PlanScanRequest, res *pb.PlanScanResponse) error {
+				return printScan(w, res.GetPlan())
+			})
 		},
 	}
 	fs := cmd.Flags()
