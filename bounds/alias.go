@@ -113,8 +113,8 @@ type aliasSummer struct {
 }
 
 // newSummer returns a summer for f on g at frequencies xi and shifts shift.
-func newSummer(ctx context.Context, f Family, g Grid, xi, shift Interval, abs bool, set Settings) *aliasSummer {
-	return &aliasSummer{ctx: ctx, f: f, g: g, xi: xi, shift: shift, abs: abs, set: set,
+func newSummer(ctx context.Context, f Family, g Grid, xi, shift Interval, abs bool, set Settings) aliasSummer {
+	return aliasSummer{ctx: ctx, f: f, g: g, xi: xi, shift: shift, abs: abs, set: set,
 		spec: f.Spectral(), spat: f.Spatial()}
 }
 
@@ -273,6 +273,11 @@ func (s *aliasSummer) trialWorthwhile(P Interval, F Complex) bool {
 	if math.IsInf(first, 1) {
 		return false
 	}
+	if !s.spec.hasDecay(Algebraic) {
+		// Gaussian and exponential copies fall off geometrically or faster
+		// and band limits end: the trial is cheap whatever it finds.
+		return true
+	}
 	goal := s.goal(math.Max(first, 0x1p-60*F.Mag()))
 	return first <= goal || s.spectralEstimate(P, autoSpectralCopies) <= goal
 }
@@ -284,26 +289,37 @@ func (s *aliasSummer) trialWorthwhile(P Interval, F Complex) bool {
 func (s *aliasSummer) chooseSide(F Complex, P Interval) (Side, int64) {
 	spec := s.spec
 	first := spec.At(s.xi.Add(P)) + spec.At(s.xi.Sub(P))
-	L := s.spectralTermsEstimate(P, s.goal(math.Max(first, 0x1p-60*F.Mag())))
-	if L < 64 {
-		return SpectralSide, L
-	}
+	goal := s.goal(math.Max(first, 0x1p-60*F.Mag()))
 	K := s.spatialTermsEstimate(F.Mag())
 	if s.g.Count > 0 && s.g.Count < K {
 		K = s.g.Count
 	}
-	tiny := first < 1e-8*F.Mag()
-	if L <= 4*K || (tiny && L <= s.set.maxTerms()) {
-		return SpectralSide, L
+	// The spectral side is worth up to four times the spatial terms (it
+	// keeps relative accuracy); one estimate at that many copies decides.
+	enough := max(int64(64), min(4*K, s.set.maxTerms()))
+	if 2*s.spectralEstimate(P, enough) <= goal {
+		return SpectralSide, enough
 	}
-	return SpatialSide, L
+	if first < 1e-8*F.Mag() {
+		// T - F would lose a tiny alias error to rounding: take the
+		// spectral side if it fits the work limit at all.
+		if L := s.spectralTermsEstimate(P, goal); L <= s.set.maxTerms() {
+			return SpectralSide, L
+		}
+	}
+	return SpatialSide, enough
 }
 
 // spectralTail bounds Σ_{|l|>L} |F(ξ + lP)|.
 func (s *aliasSummer) spectralTail(P Interval, L int64) float64 {
 	spec := s.spec
 	next := P.Scale(float64(L + 1))
-	return addUp(spec.RayTail(s.xi.Add(next), 1, P.Lo), spec.RayTail(s.xi.Sub(next), -1, P.Lo))
+	right := spec.RayTail(s.xi.Add(next), 1, P.Lo)
+	if s.xi.Lo == 0 && s.xi.Hi == 0 && spec.centred() {
+		// At ξ = 0 an envelope centred at 0 sees both rays alike.
+		return mulUp(2, right)
+	}
+	return addUp(right, spec.RayTail(s.xi.Sub(next), -1, P.Lo))
 }
 
 // firstCopies returns spectralEstimate(P, 0), computed once per summer.
@@ -320,18 +336,25 @@ func (s *aliasSummer) spectralEstimate(P Interval, L int64) float64 {
 	p := P.Mid()
 	next := p * float64(L+1)
 	x := s.xi.Mid()
-	return s.spec.RayEstimate(x+next, 1, p) + s.spec.RayEstimate(x-next, -1, p)
+	right := s.spec.RayEstimate(x+next, 1, p)
+	if x == 0 && s.spec.centred() {
+		return 2 * right
+	}
+	return right + s.spec.RayEstimate(x-next, -1, p)
 }
 
 // spectralTermsEstimate returns the number of alias copies on each side
 // needed for a tail below goal, or MaxInt64 if the limit is exceeded.
 func (s *aliasSummer) spectralTermsEstimate(P Interval, goal float64) int64 {
+	// Float estimates only: this decides a side, the sum itself is
+	// certified by the rigorous tail.
+	tail := func(L int64) float64 { return 2 * s.spectralEstimate(P, L) }
 	limit := s.set.maxTerms()
-	if s.spectralTail(P, 0) <= goal {
+	if tail(0) <= goal {
 		return 0
 	}
 	hi := int64(1)
-	for s.spectralTail(P, hi) > goal {
+	for tail(hi) > goal {
 		if hi > limit {
 			return math.MaxInt64
 		}
@@ -340,7 +363,7 @@ func (s *aliasSummer) spectralTermsEstimate(P Interval, goal float64) int64 {
 	lo := hi / 2 // tail(lo) > goal (or lo = 0)
 	for hi-lo > 1 {
 		mid := lo + (hi-lo)/2
-		if s.spectralTail(P, mid) <= goal {
+		if tail(mid) <= goal {
 			hi = mid
 		} else {
 			lo = mid
@@ -445,10 +468,16 @@ func (s *aliasSummer) spatialRays(lo, hi int64) float64 {
 	return mulUp(h, addUp(r, l))
 }
 
+// spatialEstimate approximates spatialRays in float64 (not a bound).
+func (s *aliasSummer) spatialEstimate(lo, hi int64) float64 {
+	h := s.g.Step
+	return h * (s.spat.RayEstimate(s.at(hi+1).Mid(), 1, h) + s.spat.RayEstimate(s.at(lo-1).Mid(), -1, h))
+}
+
 // spatialTermsEstimate returns the number of samples an infinite-grid
 // spatial sum needs, or MaxInt64 if it exceeds the limit.
 func (s *aliasSummer) spatialTermsEstimate(scale float64) int64 {
-	lo, hi, ok := s.spatialWindow(s.goal(scale))
+	lo, hi, ok := s.spatialWindow(s.goal(scale), false)
 	if !ok {
 		return math.MaxInt64
 	}
@@ -456,8 +485,9 @@ func (s *aliasSummer) spatialTermsEstimate(scale float64) int64 {
 }
 
 // spatialWindow finds indices [lo, hi] covering every envelope centre such
-// that the samples outside contribute at most goal.
-func (s *aliasSummer) spatialWindow(goal float64) (lo, hi int64, ok bool) {
+// that the samples outside contribute at most goal: by the float estimate
+// of the rays, then, if rigorous, by their certified bound.
+func (s *aliasSummer) spatialWindow(goal float64, rigorous bool) (lo, hi int64, ok bool) {
 	env := s.spat
 	if len(env) == 0 {
 		return 0, -1, true
@@ -480,7 +510,7 @@ func (s *aliasSummer) spatialWindow(goal float64) (lo, hi int64, ok bool) {
 		if float64(hi-lo+1) > limit {
 			return 0, 0, false
 		}
-		if s.spatialRays(lo, hi) <= goal {
+		if s.spatialEstimate(lo, hi) <= goal/2 && (!rigorous || s.spatialRays(lo, hi) <= goal) {
 			return lo, hi, true
 		}
 		if m == 0 {
@@ -493,7 +523,7 @@ func (s *aliasSummer) spatialWindow(goal float64) (lo, hi int64, ok bool) {
 
 // spatialInfinite sums T over an infinite grid on the spatial side.
 func (s *aliasSummer) spatialInfinite(scale float64) (Complex, Method, error) {
-	lo, hi, ok := s.spatialWindow(s.goal(scale))
+	lo, hi, ok := s.spatialWindow(s.goal(scale), true)
 	if !ok {
 		if math.IsInf(s.spatialRays(0, 0), 1) {
 			return Complex{}, Method{}, invalidf("family", "%v: spatial envelope is not summable; the spatial side cannot be used", s.f)
@@ -536,14 +566,13 @@ func (s *aliasSummer) omittedSum(scale float64, cap int64) (Complex, int64, floa
 	var sum Complex
 	var n int64
 	a, b := lo, hi // samples a..b are accounted for
-	h := s.g.Step
 	// Leave room in the work limit for summing the grid itself.
 	cap = min(cap, s.set.maxTerms()-s.terms-s.g.Count)
 	for {
 		goal := s.goal(math.Max(sum.Mag(), 0x1p-60*scale))
 		// The rigorous remainder costs far more than a term: take it when
 		// the float estimate says the goal is met, and at doubling counts.
-		est := h * (s.spat.RayEstimate(s.at(b+1).Mid(), 1, h) + s.spat.RayEstimate(s.at(a-1).Mid(), -1, h))
+		est := s.spatialEstimate(a, b)
 		if n == 0 || 2*est <= goal || n&(n-1) == 0 || n >= cap {
 			rem := s.spatialRays(a, b)
 			if math.IsInf(rem, 1) {

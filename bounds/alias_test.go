@@ -65,6 +65,21 @@ func TestAliasSumFiniteGridContainsBigSum(t *testing.T) {
 		{1, 2.5, 1.1, 0.3, 5},
 		{0.3, 0.05, 0.02, 10, 41},
 	}
+	// And a parameter grid: 72 more points, coarse to fine.
+	for _, sigma := range []float64{0.5, 1, 2} {
+		for _, h := range []float64{0.3, 0.9, 1.7} {
+			for _, s := range []float64{0, 0.27} {
+				for _, xi := range []float64{0, 1.3} {
+					for _, n := range []int64{9, 24} {
+						tests = append(tests, struct {
+							sigma, h, s, xi float64
+							n               int64
+						}{sigma, h, s * h, xi, n})
+					}
+				}
+			}
+		}
+	}
 	for _, tt := range tests {
 		g := GaussianFamily{Sigma: tt.sigma}
 		grid := Grid{Step: tt.h, Shift: tt.s, Count: tt.n}

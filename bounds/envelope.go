@@ -473,3 +473,24 @@ func (e Envelope) RayEstimate(x0 float64, dir int, h float64) float64 {
 	}
 	return s
 }
+
+// centred reports whether every term is centred at 0, so that the envelope
+// is even.
+func (e Envelope) centred() bool {
+	for _, t := range e {
+		if t.Center != 0 {
+			return false
+		}
+	}
+	return true
+}
+
+// hasDecay reports whether some term has decay d.
+func (e Envelope) hasDecay(d Decay) bool {
+	for _, t := range e {
+		if t.Decay == d {
+			return true
+		}
+	}
+	return false
+}
