@@ -175,16 +175,6 @@ func TestAliasSumOverTCP(t *testing.T) {
 	}
 }
 
-func TestUnfinishedCallsSayUnimplemented(t *testing.T) {
-	addr, _ := startServer(t, server.Config{})
-	c := newClient(t, addr)
-	ctx := context.Background()
-	_, err := c.PlanGrid(ctx, &pb.PlanGridRequest{Subject: &pb.PlanGridRequest_Family{Family: client.Gaussian(1)}, Tol: 1e-10})
-	if status.Code(err) != codes.Unimplemented {
-		t.Errorf("PlanGrid: code %v, want Unimplemented: %v", status.Code(err), err)
-	}
-}
-
 func TestBatch10000OverTCP(t *testing.T) {
 	addr, _ := startServer(t, server.Config{})
 	c := newClient(t, addr)

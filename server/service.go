@@ -184,14 +184,6 @@ func (s *service) errorBudget(ctx context.Context, req *pb.ErrorBudgetRequest) (
 	}, nil
 }
 
-// planGrid answers a PlanGridRequest.
-func (s *service) planGrid(ctx context.Context, req *pb.PlanGridRequest) (*pb.PlanGridResponse, error) {
-	if _, err := s.lim.checkPlanGrid(req); err != nil {
-		return nil, err
-	}
-	return nil, &unimplementedError{what: "PlanGrid: the engine's grid planner is not in this build yet"}
-}
-
 // planScan answers a PlanScanRequest. The engine's plan is closed-form and
 // quick; it takes no context.
 func (s *service) planScan(ctx context.Context, req *pb.PlanScanRequest) (*pb.PlanScanResponse, error) {

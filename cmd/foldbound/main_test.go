@@ -143,13 +143,41 @@ func TestBudgetCommand(t *testing.T) {
 }
 
 func TestPlanCommand(t *testing.T) {
-	_, errOut, code := runCLI(t, "plan", "--family", "gaussian(sigma=0.7)", "--tol", "1e-12")
-	if code == 0 || !strings.Contains(errOut, "Unimplemented") {
-		t.Errorf("plan: exit %d, %q; want Unimplemented until the planner is in the engine", code, errOut)
+	out, errOut, code := runCLI(t, "plan", "--family", "gaussian(sigma=0.7)", "--tol", "1e-12")
+	if code != 0 {
+		t.Fatalf("plan: exit %d: %s", code, errOut)
 	}
-	_, errOut, code = runCLI(t, "plan", "--family", "gaussian(sigma=0.7)", "--tol", "1e-12", "--json")
-	if code == 0 || !strings.Contains(errOut, "Unimplemented") {
-		t.Errorf("plan --json: exit %d, %q; want Unimplemented", code, errOut)
+	for _, want := range []string{"certified bound", "aliasing", "truncation", "rounding", "verified"} {
+		if !strings.Contains(out, want) {
+			t.Errorf("plan output lacks %q:\n%s", want, out)
+		}
+	}
+	out, errOut, code = runCLI(t, "plan", "--family", "gaussian(sigma=0.7)", "--tol", "1e-12", "--json")
+	if code != 0 {
+		t.Fatalf("plan --json: exit %d: %s", code, errOut)
+	}
+	var res pb.PlanGridResponse
+	if err := protojson.Unmarshal([]byte(out), &res); err != nil {
+		t.Fatal(err)
+	}
+	// The planned grid's float64 trapezoidal sum of exp(-x²/(2·0.49)) is
+	// within the tolerance of 0.7·√(2π) (the Gaussian integral, DLMF 7.7.6
+	// by substitution, from memory), at the planned shift and half a step off.
+	g := res.GetAxes()[0].GetGrid()
+	for _, frac := range []float64{0, 0.5} {
+		n := g.GetCount()
+		var s float64
+		for k := -((n - 1) / 2); k <= n/2; k++ {
+			x := g.GetShift() + frac*g.GetStep() + g.GetStep()*float64(k)
+			s += math.Exp(-x * x / (2 * 0.49))
+		}
+		if err := math.Abs(g.GetStep()*s - 0.7*math.Sqrt(2*math.Pi)); err > 1e-12 {
+			t.Errorf("planned grid %v shifted %g steps: error %g > 1e-12", g, frac, err)
+		}
+	}
+	_, errOut, code = runCLI(t, "plan", "--family", "gaussian(sigma=0.7)", "--tol", "1e-300")
+	if code == 0 || !strings.Contains(errOut, "OutOfRange") {
+		t.Errorf("plan --tol 1e-300: exit %d, %q; want OutOfRange", code, errOut)
 	}
 }
 
