@@ -193,7 +193,7 @@ func printPlan(w io.Writer, req *pb.PlanGridRequest, r *pb.PlanGridResponse) err
 	t.row("axis", "step", "count", "shift", "window")
 	for i, a := range r.GetAxes() {
 		g := a.GetGrid()
-		t.row(fmt.Sprint(i), fmt.Sprintf("%.6g", g.GetStep()), fmt.Sprint(g.GetCount()), fmt.Sprintf("%g", g.GetShift()),
+		t.row(fmt.Sprint(i), fmt.Sprintf("%.6g", g.GetStep()), fmt.Sprint(g.GetCount()), fmt.Sprintf("%.6g", g.GetShift()),
 			fmt.Sprintf("[%.6g, %.6g]", a.GetWindow().GetLo(), a.GetWindow().GetHi()))
 	}
 	if err := t.flush(); err != nil {
