@@ -128,9 +128,6 @@ const shiftPieces = 16
 // envelope, for every shift: S ≤ Σ_terms h Σ_{k∈Z} term(x_k), each term's
 // lattice sum bounded in closed form by latticeTermSum.
 func windowSum(env Envelope, g Grid, shifts Interval) float64 {
-	if g.Infinite() {
-		return 0
-	}
 	s := 0.0
 	for _, t := range env {
 		s = addUp(s, latticeTermSum(t, g.Step))

@@ -665,11 +665,7 @@ func (p *plannerND) certifyOnce(ns []int64) (PlanND, error) {
 		n int64
 	}
 	done := map[key]Plan{}
-	A, Mp, T, Sp := Point(1), Point(1), Point(1), Point(1)
-	S := Point(1)
-	count := int64(1)
-	phase := Interval{}
-	anyXi := false
+	parts := make([]axisParts, n)
 	for j := range ns {
 		k := p.of[j]
 		a := p.axes[k]
@@ -688,77 +684,24 @@ func (p *plannerND) certifyOnce(ns []int64) (PlanND, error) {
 		res.Axes[j] = pl
 		e, _ := a.errAt(ns[j])
 		res.Shares[j] = e
-		g := pl.Grid
-		// Certified sizes of the axis.
-		Sj := windowSum(a.p.m.spatial, g, shiftRange(g, !a.p.req.FixedShift))
-		Mj := math.Min(p.supTransform(k), Sj)
-		// |T_j| ≤ min(S_j, M_j + a_j + t_j) for a separable family; under
-		// product envelopes the envelope's window sum S_j.
-		Wj := Sj
+		// Under product envelopes |T_j| is bounded by the window sum alone
+		// (newAxisParts with no family).
+		var f Family
 		if p.separable {
-			Wj = math.Min(Sj, Point(Mj).AddFloat(pl.Budget.Aliasing).AddFloat(pl.Budget.Truncation).Hi)
+			f = a.p.req.Family
 		}
-		A = A.Mul(Point(Mj).AddFloat(pl.Budget.Aliasing))
-		Mp = Mp.Mul(Point(Mj))
-		T = T.Mul(Point(Wj).AddFloat(pl.Budget.Truncation))
-		Sp = Sp.Mul(Point(Wj))
-		S = S.Mul(Point(Sj))
-		count *= g.Count
-		if xm := a.p.req.Band.Interval().Mag(); xm != 0 {
-			anyXi = true
-			phase = phase.Add(Point(xm).Mul(Point(maxAbsX(g, shiftRange(g, !a.p.req.FixedShift)))))
-		}
+		parts[j] = newAxisParts(f, a.p.m.spatial, a.p.m.spectral, pl.Grid, a.p.req.Band, !a.p.req.FixedShift, pl.Budget)
 	}
-	var b Budget
-	b.Aliasing = A.Sub(Mp).Hi
-	b.Truncation = T.Sub(Sp).Hi
-	b.Rounding = roundingBoundND(count, n, p.req.sampleUlps(), anyXi, phase, S)
-	b.Exact = true
-	for _, pl := range res.Axes {
-		b.Exact = b.Exact && pl.Budget.Exact
-		b.Pieces = max(b.Pieces, pl.Budget.Pieces)
-	}
-	b.total()
+	b := composeND(parts, p.req.sampleUlps())
 	if !finite(b.Total) {
 		return PlanND{}, fmt.Errorf("bounds: n-d plan: %w", ErrNotFinite)
+	}
+	count := int64(1)
+	for _, pl := range res.Axes {
+		count *= pl.Grid.Count
 	}
 	res.Budget = b
 	res.Count = count
 	res.Cost = p.req.Cost.Cost(float64(count))
 	return res, nil
-}
-
-// supTransform bounds sup |F_k| over the axis's band: the family's
-// transform in interval arithmetic over eight pieces of the band, or the
-// spectral envelope.
-func (p *plannerND) supTransform(k int) float64 {
-	a := p.axes[k]
-	band := a.p.req.Band.Interval()
-	env := a.p.m.spectral.At(band)
-	if a.p.req.Family == nil {
-		return env
-	}
-	pieces := 1
-	if band.Lo != band.Hi {
-		pieces = 8
-	}
-	m := 0.0
-	for i := 0; i < pieces; i++ {
-		m = math.Max(m, a.p.req.Family.Transform(subinterval(band, i, pieces)).Mag())
-	}
-	return math.Min(m, env)
-}
-
-// roundingBoundND is the rounding bound of the n-D sum (see PlanGridND):
-// (γ_{N+n+2} + c_f·u + [γ_n·Σ_j|ξ_j|X_j + 4u])·S.
-func roundingBoundND(count int64, n int, sampleUlps float64, anyXi bool, phase Interval, S Interval) float64 {
-	u := Point(unitRoundoff)
-	nu := Point(float64(count)).AddFloat(float64(n + 2)).Mul(u)
-	rel := nu.Div(Point(1).Sub(nu)).Add(Point(sampleUlps).Mul(u))
-	if anyXi {
-		gn := Point(float64(n)).Mul(u)
-		gn = gn.Div(Point(1).Sub(gn))
-		rel = rel.Add(gn.Mul(phase)).Add(u.Scale(4))
-	}
-	return rel.Mul(S).Hi
 }

@@ -146,11 +146,11 @@ func (s *service) errorBudget(ctx context.Context, req *pb.ErrorBudgetRequest) (
 	if err != nil {
 		return nil, err
 	}
-	if dim != 1 || isND(req.GetFamily().GetKind()) {
-		return nil, &unimplementedError{field: "family." + kindName(req.GetFamily()), what: "n-dimensional error budgets are not available in this server's engine yet"}
-	}
 	conv := engineConvention(req.GetConvention())
 	opt := bounds.BudgetOptions{AnyShift: req.GetWorstCaseShift(), SampleUlps: req.GetSampleUlps(), Settings: s.lim.engineSettings(req.GetSettings())}
+	if dim != 1 || isND(req.GetFamily().GetKind()) {
+		return s.errorBudgetND(ctx, req, dim, conv, opt)
+	}
 	g := engineGrid(req.GetGrids()[0])
 	band := engineBand(conv, req.GetFrequency(), 0)
 	var (
