@@ -13,17 +13,12 @@ import (
 // errorBudgetND answers an ErrorBudgetRequest for a separable family on a
 // rectangular grid in dim dimensions (bounds.FamilyBudgetND).
 func (s *service) errorBudgetND(ctx context.Context, req *pb.ErrorBudgetRequest, dim int, conv bounds.Convention, opt bounds.BudgetOptions) (*pb.ErrorBudgetResponse, error) {
-	f, err := familyND("family", req.GetFamily(), dim)
+	factors, name, err := separableFactors(req.GetFamily(), dim, "error budgets")
 	if err != nil {
 		return nil, err
 	}
-	fac, ok := f.(bounds.Factored)
-	if !ok {
-		return nil, &bounds.ParamError{Param: "family", Err: bounds.ErrInvalid,
-			Reason: "rectangular grid budgets need a separable family (a product of one-dimensional factors)"}
-	}
 	axes := make([]bounds.BudgetAxis, dim)
-	for j, g := range fac.Factors() {
+	for j, g := range factors {
 		axes[j] = bounds.BudgetAxis{Family: g, Grid: engineGrid(req.GetGrids()[j]), Band: engineBand(conv, req.GetFrequency(), j)}
 	}
 	b, err := bounds.FamilyBudgetND(ctx, axes, opt)
@@ -33,7 +28,7 @@ func (s *service) errorBudgetND(ctx context.Context, req *pb.ErrorBudgetRequest,
 	return &pb.ErrorBudgetResponse{
 		Budget:         newOutputs(conv, dim).budget(b),
 		Convention:     wireConvention(conv),
-		Subject:        f.String(),
+		Subject:        name,
 		WorstCaseShift: req.GetWorstCaseShift(),
 		Frequency:      &pb.Band{Center: req.GetFrequency().GetCenter(), HalfWidth: req.GetFrequency().GetHalfWidth()},
 	}, nil

@@ -138,6 +138,24 @@ func familyND(path string, f *pb.Family, dim int) (bounds.FamilyND, error) {
 	return bounds.Separable{Axes: []bounds.Family{f1}}, nil
 }
 
+// separableFactors converts a validated family of dimension dim to the
+// one-dimensional factors of a separable product, for the calls on
+// rectangular grids that work axis by axis (plans and n-D budgets); it also
+// returns the family's name. what names the call in the error for a
+// family that does not factor.
+func separableFactors(f *pb.Family, dim int, what string) ([]bounds.Family, string, error) {
+	g, err := familyND("family", f, dim)
+	if err != nil {
+		return nil, "", err
+	}
+	fac, ok := g.(bounds.Factored)
+	if !ok {
+		return nil, "", &bounds.ParamError{Param: "family", Err: bounds.ErrInvalid,
+			Reason: what + " on rectangular grids need a separable family (a product of one-dimensional factors)"}
+	}
+	return fac.Factors(), g.String(), nil
+}
+
 // engineGrid converts a validated grid.
 func engineGrid(g *pb.Grid) bounds.Grid {
 	return bounds.Grid{Step: g.GetStep(), Shift: g.GetShift(), Count: g.GetCount()}

@@ -52,19 +52,14 @@ func (s *service) planGrid(ctx context.Context, req *pb.PlanGridRequest) (*pb.Pl
 		}
 		axes[0].Family, subject = f, f.String()
 	default:
-		f, err := familyND("family", req.GetFamily(), dim)
+		factors, name, err := separableFactors(req.GetFamily(), dim, "plans")
 		if err != nil {
 			return nil, err
 		}
-		fac, ok := f.(bounds.Factored)
-		if !ok {
-			return nil, &bounds.ParamError{Param: "family", Err: bounds.ErrInvalid,
-				Reason: "rectangular grid plans need a separable family (a product of one-dimensional factors)"}
-		}
-		for j, g := range fac.Factors() {
+		for j, g := range factors {
 			axes[j].Family = g
 		}
-		subject = f.String()
+		subject = name
 	}
 	cost := engineCost(req.GetCost())
 	res := &pb.PlanGridResponse{
