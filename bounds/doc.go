@@ -39,8 +39,13 @@
 //     as a sup over a band, for the grid's shift or for every shift.
 //   - PeriodicRule and StripBound: the N-point rule over a period and the
 //     aliasing of Fourier coefficients.
-//   - AliasSumND: the same on rectangular grids in n ≤ MaxDim dimensions
-//     for separable families (Separable, RadialGaussian), axis by axis.
+//   - PlanGrid and PlanGridND: the cheapest grid (step, count, shift per
+//     axis) whose certified budget meets a tolerance, for every shift by
+//     default, under a cost model (CostModel: samples, FFT-friendly sizes,
+//     per-sample and per-transform prices); PlanBatch plans many at once.
+//   - AliasSumND and FamilyBudgetND: alias sums and budgets on rectangular
+//     grids in n ≤ MaxDim dimensions for separable families (Separable,
+//     RadialGaussian), composed axis by axis.
 //   - LatticeAliasSum: alias sums on a general lattice W·Z^n (Lattice,
 //     with the square, hexagonal, body- and face-centred cubic and D4
 //     lattices built in), summed over shells of the dual lattice with a
