@@ -49,6 +49,11 @@ func (g FanScan) Validate() error {
 // FanSinogram returns the exact fan-beam samples of the phantom, using the
 // parallel coordinates of each ray and the closed-form Radon transform.
 func (p Phantom) FanSinogram(g FanScan) (Sinogram, error) {
+	return p.fanSinogram(context.Background(), g)
+}
+
+// fanSinogram is FanSinogram checking ctx once per source position.
+func (p Phantom) fanSinogram(ctx context.Context, g FanScan) (Sinogram, error) {
 	if err := p.Validate(); err != nil {
 		return Sinogram{}, err
 	}
@@ -58,6 +63,9 @@ func (p Phantom) FanSinogram(g FanScan) (Sinogram, error) {
 	sino := Sinogram{Views: g.Sources, Detectors: g.Detectors, Data: make([]float64, g.Sources*g.Detectors)}
 	a0 := -0.5 * float64(g.Detectors-1) * g.Angle
 	for j := range g.Sources {
+		if err := ctx.Err(); err != nil {
+			return Sinogram{}, err
+		}
 		beta := 2 * math.Pi * float64(j) / float64(g.Sources)
 		row := sino.Data[j*g.Detectors : (j+1)*g.Detectors]
 		for l := range row {

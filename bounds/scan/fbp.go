@@ -81,6 +81,11 @@ type Sinogram struct {
 // ParallelSinogram returns the exact parallel-beam samples Rf(θ_j, s_l) of
 // the phantom (closed form, see Blob).
 func (p Phantom) ParallelSinogram(g ParallelScan) (Sinogram, error) {
+	return p.parallelSinogram(context.Background(), g)
+}
+
+// parallelSinogram is ParallelSinogram checking ctx once per view.
+func (p Phantom) parallelSinogram(ctx context.Context, g ParallelScan) (Sinogram, error) {
 	if err := p.Validate(); err != nil {
 		return Sinogram{}, err
 	}
@@ -88,12 +93,25 @@ func (p Phantom) ParallelSinogram(g ParallelScan) (Sinogram, error) {
 		return Sinogram{}, err
 	}
 	sino := Sinogram{Views: g.Views, Detectors: g.Detectors, Data: make([]float64, g.Views*g.Detectors)}
+	views := make([]blobView, len(p.Blobs))
 	for j := range g.Views {
+		if err := ctx.Err(); err != nil {
+			return Sinogram{}, err
+		}
 		phi := math.Pi * float64(j) / float64(g.Views)
+		sn, c := math.Sincos(phi)
+		for i, b := range p.Blobs {
+			views[i] = b.view(phi, c, sn)
+		}
 		s0 := g.offset(j)
 		row := sino.Data[j*g.Detectors : (j+1)*g.Detectors]
 		for l := range row {
-			row[l] = p.Projection(phi, s0+float64(l)*g.Spacing)
+			s := s0 + float64(l)*g.Spacing
+			var sum float64
+			for _, v := range views {
+				sum += v.at(s)
+			}
+			row[l] = sum
 		}
 	}
 	return sino, nil

@@ -90,11 +90,31 @@ func (p Phantom) Projection(phi, s float64) float64 {
 }
 
 func (b Blob) projection(phi, c, sn, s float64) float64 {
+	return b.view(phi, c, sn).at(s)
+}
+
+// blobView is the projection of one blob at one view angle φ, a 1-D
+// Gaussian amp·exp(−(s − centre)²/(2σθ²)); the sinograms compute it once
+// per view.
+type blobView struct {
+	centre float64 // c·θ
+	inv2v  float64 // 1/(2σθ²)
+	amp    float64 // A·√(2π)·σu σv/σθ
+}
+
+func (b Blob) view(phi, c, sn float64) blobView {
 	cu, su := math.Cos(phi-b.Angle), math.Sin(phi-b.Angle)
 	v := b.SigmaU*b.SigmaU*cu*cu + b.SigmaV*b.SigmaV*su*su
-	st := math.Sqrt(v)
-	d := s - (b.X*c + b.Y*sn)
-	return b.Amplitude * math.Sqrt(2*math.Pi) * b.SigmaU * b.SigmaV / st * math.Exp(-d*d/(2*v))
+	return blobView{
+		centre: b.X*c + b.Y*sn,
+		inv2v:  1 / (2 * v),
+		amp:    b.Amplitude * math.Sqrt(2*math.Pi) * b.SigmaU * b.SigmaV / math.Sqrt(v),
+	}
+}
+
+func (v blobView) at(s float64) float64 {
+	d := s - v.centre
+	return v.amp * math.Exp(-d*d*v.inv2v)
 }
 
 // Extent returns a radius ρ and an essential bandwidth Ω of the phantom at
