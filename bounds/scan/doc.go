@@ -8,7 +8,10 @@
 // ParallelSinogram, FanSinogram, ReconstructParallel, ReconstructFan and
 // Phantom.Compare form the verification path: Gaussian blobs with
 // closed-form projections, filtered backprojection, and the error of the
-// reconstruction over the object disc.
+// reconstruction over the object disc. Verify runs that path for a plan:
+// FitPhantom builds a phantom of the plan's radius and band limit, and it
+// is reconstructed at the planned layout and at the same layout
+// undersampled (see "Verification of a plan" below).
 //
 // # Caution
 //
@@ -180,6 +183,28 @@
 // the interpolation error at the Nyquist spacing; interlaced data need
 // M = 64. A 256×256 image from 400 views takes about 55 ms (M = 1) or
 // 110 ms (M = 4) of CPU time on one core (amd64, BenchmarkReconstructParallel).
+//
+// # Verification of a plan
+//
+// Verify reconstructs the phantom FitPhantom(ρ, Ω, 10⁻³) (the demo layout
+// fitted so that every blob is below 10⁻³ of its peak outside the disc
+// and its transform below 10⁻³ of its peak beyond Ω) at the planned
+// standard layout, with half the views, with twice the detector spacing
+// (angle), and at the interlaced layout when it is offered, with
+// filtered projections oversampled 16-fold (64-fold for interlaced data).
+// Measured at 128×128 pixels (TestVerifyPlans), the relative RMS error
+// over the disc is, for parallel-beam plans with ρΩ from 40 to 300,
+// 0.9e-4 to 3.4e-4 at the plan, 31× to 55× that with half the views,
+// 180× to 250× with twice the spacing, and 0.9e-3 to 3.5e-3 at the
+// interlaced plan; for fan-beam plans (R/ρ = 2 to 4, ρΩ = 50 to 200)
+// 2.6e-5 to 5.6e-5 at the plan, 100× to 160× with half the sources and
+// 210× to 275× with twice the detector angle. The planned error is the
+// part of the phantom's spectrum beyond Ω aliased back: sampling twice as
+// densely in both directions lowers it a further 4× to 10×, twice the
+// views alone do not. The interlaced error does not fall with more
+// views; it is the plain reconstruction of that lattice. Fan-beam
+// verification covers full scans with R > √2·ρ only (no short-scan
+// weighting).
 //
 // # Errors
 //

@@ -1,6 +1,7 @@
 package scan
 
 import (
+	"errors"
 	"fmt"
 	"math"
 
@@ -26,4 +27,19 @@ func positive(param string, v float64) error {
 		return invalid(param, "must be finite and > 0, got %g", v)
 	}
 	return nil
+}
+
+// renameParam returns err with the path of its *bounds.ParamError set to
+// to when it is from, and prefix (if any) put before the reason. Other
+// errors pass unchanged.
+func renameParam(err error, from, to, prefix string) error {
+	var pe *bounds.ParamError
+	if !errors.As(err, &pe) || (from != "" && pe.Param != from) {
+		return err
+	}
+	reason := pe.Reason
+	if prefix != "" {
+		reason = prefix + ": " + pe.Param + " " + reason
+	}
+	return &bounds.ParamError{Param: to, Reason: reason, Err: pe.Err}
 }
