@@ -362,6 +362,45 @@ func wireScanPlan(r scan.Result) *pb.ScanPlan {
 	return p
 }
 
+func wireScanVerification(v scan.Verification) *pb.ScanVerification {
+	out := &pb.ScanVerification{
+		Phantom:          v.Description,
+		Level:            v.Level,
+		PhantomRadius:    v.Radius,
+		PhantomBandwidth: v.Bandwidth,
+		ImageSize:        int32(v.Size),
+		ImageWidth:       v.Width,
+		Window:           v.Window.String(),
+		Note:             v.Note,
+		Caution:          v.Caution,
+	}
+	for _, b := range v.Phantom.Blobs {
+		out.Blobs = append(out.Blobs, &pb.ScanBlob{X: b.X, Y: b.Y, SigmaU: b.SigmaU, SigmaV: b.SigmaV, Angle: b.Angle, Amplitude: b.Amplitude})
+	}
+	for _, c := range v.Cases {
+		wc := &pb.ScanVerificationCase{
+			Label:            c.Label,
+			Scheme:           pb.ScanScheme_SCAN_SCHEME_STANDARD,
+			Views:            int64(c.Views),
+			Detectors:        int64(c.Detectors),
+			DetectorSpacing:  c.Spacing,
+			DetectorAngle:    c.Angle,
+			Oversampling:     int32(c.Oversample),
+			RelativeRmsError: c.Error.RelRMS,
+			MaxAbsError:      c.Error.MaxAbs,
+			Peak:             c.Error.Peak,
+			Pixels:           int64(c.Error.Pixels),
+			RatioToPlanned:   c.Ratio,
+			Seconds:          c.Elapsed.Seconds(),
+		}
+		if c.Scheme == scan.Interlaced {
+			wc.Scheme = pb.ScanScheme_SCAN_SCHEME_INTERLACED
+		}
+		out.Cases = append(out.Cases, wc)
+	}
+	return out
+}
+
 func wireScanLayout(l scan.Layout) *pb.ScanLayout {
 	out := &pb.ScanLayout{
 		Scheme:          pb.ScanScheme_SCAN_SCHEME_STANDARD,

@@ -185,7 +185,8 @@ func (s *service) errorBudget(ctx context.Context, req *pb.ErrorBudgetRequest) (
 }
 
 // planScan answers a PlanScanRequest. The engine's plan is closed-form and
-// quick; it takes no context.
+// quick; it takes no context. The verification, when asked for, is a
+// bounded computation that honours ctx.
 func (s *service) planScan(ctx context.Context, req *pb.PlanScanRequest) (*pb.PlanScanResponse, error) {
 	if err := s.lim.checkPlanScan(req); err != nil {
 		return nil, err
@@ -202,5 +203,13 @@ func (s *service) planScan(ctx context.Context, req *pb.PlanScanRequest) (*pb.Pl
 	if err != nil {
 		return nil, scanPaths(err)
 	}
-	return &pb.PlanScanResponse{Plan: wireScanPlan(res), Convention: wireConvention(bounds.Angular)}, nil
+	out := &pb.PlanScanResponse{Plan: wireScanPlan(res), Convention: wireConvention(bounds.Angular)}
+	if req.GetVerify() {
+		v, err := scan.Verify(ctx, res, scan.VerifyOptions{Size: int(req.GetVerifyImageSize())})
+		if err != nil {
+			return nil, scanPaths(err)
+		}
+		out.Verification = wireScanVerification(v)
+	}
+	return out, nil
 }

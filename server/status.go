@@ -173,13 +173,23 @@ func wirePathsND(err error) error {
 }
 
 // scanPaths renames "scan.radius" and the like to the request's field
-// names.
+// names, and the verification's limits to the fields that ask for them:
+// "verify.size" and "verify.work" (image size, estimated work) to
+// verify_image_size, any other "verify…" path (a sinogram too large, a
+// plan that cannot be verified) to verify.
 func scanPaths(err error) error {
 	var pe *bounds.ParamError
 	if !errors.As(err, &pe) {
 		return err
 	}
-	return &bounds.ParamError{Param: strings.TrimPrefix(pe.Param, "scan."), Reason: pe.Reason, Err: pe.Err}
+	p := strings.TrimPrefix(pe.Param, "scan.")
+	switch {
+	case p == "verify.size" || p == "verify.work":
+		p = "verify_image_size"
+	case strings.HasPrefix(p, "verify."):
+		p = "verify"
+	}
+	return &bounds.ParamError{Param: p, Reason: pe.Reason, Err: pe.Err}
 }
 
 // toStatus maps any error of validation, conversion or the engine to a

@@ -10,6 +10,7 @@ import (
 
 	pb "foldbound/api/foldbound/v1"
 	"foldbound/bounds"
+	"foldbound/bounds/scan"
 )
 
 // maxViolations caps the violations collected for one request.
@@ -448,5 +449,17 @@ func (lim Limits) checkPlanScan(r *pb.PlanScanRequest) error {
 			c.bad("source_radius", "must exceed radius (the source lies outside the object), got %g ≤ %g", R, rho)
 		}
 	}
+	switch n := r.GetVerifyImageSize(); {
+	case n != 0 && !r.GetVerify():
+		c.bad("verify_image_size", "applies only with verify; must be 0, got %d", n)
+	case n < 0 || (n > 0 && n < minVerifySize):
+		c.bad("verify_image_size", "must be 0 (meaning %d) or between %d and %d, got %d", scan.DefaultVerifySize, minVerifySize, scan.MaxVerifySize, n)
+	case n > scan.MaxVerifySize:
+		c.limit("verify_image_size", "%d pixels per side exceed the limit of %d", n, scan.MaxVerifySize)
+	}
 	return c.err()
 }
+
+// minVerifySize is the smallest image size of a scan verification that
+// the service accepts: fewer pixels say little about a reconstruction.
+const minVerifySize = 16

@@ -94,8 +94,8 @@ func FitPhantom(radius, bandwidth, eps float64) (Phantom, error) {
 		}
 	}
 	if !(radius*bandwidth >= need) {
-		return Phantom{}, invalid("scan.bandwidth", "ρΩ = %.4g is below %.4g: no phantom of this layout with "+
-			"band limit Ω fits in the disc of radius ρ at level ε = %g", radius*bandwidth, need, eps)
+		return Phantom{}, invalid("scan.bandwidth", "the verification phantom needs ρΩ ≥ %.4g, got %.4g: below it no phantom of "+
+			"this layout with band limit Ω fits in the disc of radius ρ at level ε = %g", need, radius*bandwidth, eps)
 	}
 	if err := out.Validate(); err != nil {
 		return Phantom{}, fmt.Errorf("fitted phantom: %w", err)

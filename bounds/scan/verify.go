@@ -193,8 +193,8 @@ func Verify(ctx context.Context, res Result, opt VerifyOptions) (Verification, e
 		work += c.work(n, len(ph.Blobs))
 	}
 	if work > MaxVerifyWork {
-		return Verification{}, workLimit("verify.work", "the %d reconstructions of %d² pixels need about %.3g work units, more than the limit %d; "+
-			"ask for a smaller image or a smaller plan", len(cases), n, work, int64(MaxVerifyWork))
+		return Verification{}, workLimit("verify.work", "the %d reconstructions of %d² pixels need about %.3g work units, more than the limit %.3g; "+
+			"ask for a smaller image or a smaller plan", len(cases), n, work, float64(MaxVerifyWork))
 	}
 
 	opts := Options{Size: n, Width: 2 * rho, Window: RamLak}
@@ -305,7 +305,7 @@ func fanRuns(res Result) ([]verifyRun, string, error) {
 	rho, bigR := res.Radius, res.SourceRadius
 	if !(bigR > math.Sqrt2*rho) {
 		return nil, "", invalid("scan.source_radius", "fan-beam verification reconstructs on the square of side 2ρ, "+
-			"whose corners must lie inside the source circle: needs R > √2·ρ = %g, got R = %g", math.Sqrt2*rho, bigR)
+			"whose corners must lie inside the source circle: needs R > √2·ρ = %.6g, got R = %g", math.Sqrt2*rho, bigR)
 	}
 	s := res.Standard
 	if s.Views < 2 || s.Detectors < 3 {

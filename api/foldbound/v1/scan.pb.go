@@ -406,6 +406,413 @@ func (x *ScanPlan) GetCaution() string {
 	return ""
 }
 
+// ScanBlob is one Gaussian blob of a verification phantom:
+// f(x) = amplitude * exp(-(u^2/sigma_u^2 + v^2/sigma_v^2)/2), with u, v the
+// coordinates of x - (x, y) along the axes at `angle` and `angle` + 90
+// degrees. Its line integrals are closed-form.
+type ScanBlob struct {
+	state protoimpl.MessageState `protogen:"open.v1"`
+	// Centre, length units.
+	X float64 `protobuf:"fixed64,1,opt,name=x,proto3" json:"x,omitempty"`
+	// Centre, length units.
+	Y float64 `protobuf:"fixed64,2,opt,name=y,proto3" json:"y,omitempty"`
+	// Standard deviation along the first axis, length units.
+	SigmaU float64 `protobuf:"fixed64,3,opt,name=sigma_u,json=sigmaU,proto3" json:"sigma_u,omitempty"`
+	// Standard deviation along the second axis, length units.
+	SigmaV float64 `protobuf:"fixed64,4,opt,name=sigma_v,json=sigmaV,proto3" json:"sigma_v,omitempty"`
+	// Angle of the first axis from the x axis, radians.
+	Angle float64 `protobuf:"fixed64,5,opt,name=angle,proto3" json:"angle,omitempty"`
+	// Peak value (any unit of attenuation).
+	Amplitude     float64 `protobuf:"fixed64,6,opt,name=amplitude,proto3" json:"amplitude,omitempty"`
+	unknownFields protoimpl.UnknownFields
+	sizeCache     protoimpl.SizeCache
+}
+
+func (x *ScanBlob) Reset() {
+	*x = ScanBlob{}
+	mi := &file_foldbound_v1_scan_proto_msgTypes[2]
+	ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
+	ms.StoreMessageInfo(mi)
+}
+
+func (x *ScanBlob) String() string {
+	return protoimpl.X.MessageStringOf(x)
+}
+
+func (*ScanBlob) ProtoMessage() {}
+
+func (x *ScanBlob) ProtoReflect() protoreflect.Message {
+	mi := &file_foldbound_v1_scan_proto_msgTypes[2]
+	if x != nil {
+		ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
+		if ms.LoadMessageInfo() == nil {
+			ms.StoreMessageInfo(mi)
+		}
+		return ms
+	}
+	return mi.MessageOf(x)
+}
+
+// Deprecated: Use ScanBlob.ProtoReflect.Descriptor instead.
+func (*ScanBlob) Descriptor() ([]byte, []int) {
+	return file_foldbound_v1_scan_proto_rawDescGZIP(), []int{2}
+}
+
+func (x *ScanBlob) GetX() float64 {
+	if x != nil {
+		return x.X
+	}
+	return 0
+}
+
+func (x *ScanBlob) GetY() float64 {
+	if x != nil {
+		return x.Y
+	}
+	return 0
+}
+
+func (x *ScanBlob) GetSigmaU() float64 {
+	if x != nil {
+		return x.SigmaU
+	}
+	return 0
+}
+
+func (x *ScanBlob) GetSigmaV() float64 {
+	if x != nil {
+		return x.SigmaV
+	}
+	return 0
+}
+
+func (x *ScanBlob) GetAngle() float64 {
+	if x != nil {
+		return x.Angle
+	}
+	return 0
+}
+
+func (x *ScanBlob) GetAmplitude() float64 {
+	if x != nil {
+		return x.Amplitude
+	}
+	return 0
+}
+
+// ScanVerificationCase is one reconstruction of a ScanVerification: the
+// phantom's exact projections at one sampling, inverted by filtered
+// backprojection and compared with the phantom at the pixel centres inside
+// the disc of radius rho.
+type ScanVerificationCase struct {
+	state protoimpl.MessageState `protogen:"open.v1"`
+	// The sampling: "planned", "half the views", "twice the detector
+	// spacing", "interlaced, planned" (parallel beam); "planned", "half the
+	// sources", "twice the detector angle" (fan beam).
+	Label string `protobuf:"bytes,1,opt,name=label,proto3" json:"label,omitempty"`
+	// The sampling lattice.
+	Scheme ScanScheme `protobuf:"varint,2,opt,name=scheme,proto3,enum=foldbound.v1.ScanScheme" json:"scheme,omitempty"`
+	// View directions over 180 degrees (parallel beam) or source positions
+	// over 360 degrees (fan beam).
+	Views int64 `protobuf:"varint,3,opt,name=views,proto3" json:"views,omitempty"`
+	// Rays per view simulated. The interlaced case simulates one more than
+	// the plan's larger count, a ray outside the disc, so that both
+	// alternating detector grids span it.
+	Detectors int64 `protobuf:"varint,4,opt,name=detectors,proto3" json:"detectors,omitempty"`
+	// Spacing of parallel rays (parallel beam), or R times the detector
+	// angle, the ray spacing at the rotation axis (fan beam); length units.
+	DetectorSpacing float64 `protobuf:"fixed64,5,opt,name=detector_spacing,json=detectorSpacing,proto3" json:"detector_spacing,omitempty"`
+	// Angle between neighbouring rays of a fan, radians (fan beam only).
+	DetectorAngle float64 `protobuf:"fixed64,6,opt,name=detector_angle,json=detectorAngle,proto3" json:"detector_angle,omitempty"`
+	// Oversampling factor of the filtered projections before the linear
+	// interpolation of the backprojection (16; 64 for interlaced data).
+	Oversampling int32 `protobuf:"varint,7,opt,name=oversampling,proto3" json:"oversampling,omitempty"`
+	// Relative RMS error ||f_rec - f||_2 / ||f||_2 over the pixel centres in
+	// the disc; dimensionless.
+	RelativeRmsError float64 `protobuf:"fixed64,8,opt,name=relative_rms_error,json=relativeRmsError,proto3" json:"relative_rms_error,omitempty"`
+	// Largest |f_rec - f| over the same pixels, in the phantom's units.
+	MaxAbsError float64 `protobuf:"fixed64,9,opt,name=max_abs_error,json=maxAbsError,proto3" json:"max_abs_error,omitempty"`
+	// Largest |f| over the same pixels, for scale.
+	Peak float64 `protobuf:"fixed64,10,opt,name=peak,proto3" json:"peak,omitempty"`
+	// Number of pixel centres compared.
+	Pixels int64 `protobuf:"varint,11,opt,name=pixels,proto3" json:"pixels,omitempty"`
+	// relative_rms_error divided by that of the "planned" case (1 for it).
+	RatioToPlanned float64 `protobuf:"fixed64,12,opt,name=ratio_to_planned,json=ratioToPlanned,proto3" json:"ratio_to_planned,omitempty"`
+	// Wall time of the case (projections, reconstruction, comparison),
+	// seconds. Depends on the machine and its load.
+	Seconds       float64 `protobuf:"fixed64,13,opt,name=seconds,proto3" json:"seconds,omitempty"`
+	unknownFields protoimpl.UnknownFields
+	sizeCache     protoimpl.SizeCache
+}
+
+func (x *ScanVerificationCase) Reset() {
+	*x = ScanVerificationCase{}
+	mi := &file_foldbound_v1_scan_proto_msgTypes[3]
+	ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
+	ms.StoreMessageInfo(mi)
+}
+
+func (x *ScanVerificationCase) String() string {
+	return protoimpl.X.MessageStringOf(x)
+}
+
+func (*ScanVerificationCase) ProtoMessage() {}
+
+func (x *ScanVerificationCase) ProtoReflect() protoreflect.Message {
+	mi := &file_foldbound_v1_scan_proto_msgTypes[3]
+	if x != nil {
+		ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
+		if ms.LoadMessageInfo() == nil {
+			ms.StoreMessageInfo(mi)
+		}
+		return ms
+	}
+	return mi.MessageOf(x)
+}
+
+// Deprecated: Use ScanVerificationCase.ProtoReflect.Descriptor instead.
+func (*ScanVerificationCase) Descriptor() ([]byte, []int) {
+	return file_foldbound_v1_scan_proto_rawDescGZIP(), []int{3}
+}
+
+func (x *ScanVerificationCase) GetLabel() string {
+	if x != nil {
+		return x.Label
+	}
+	return ""
+}
+
+func (x *ScanVerificationCase) GetScheme() ScanScheme {
+	if x != nil {
+		return x.Scheme
+	}
+	return ScanScheme_SCAN_SCHEME_UNSPECIFIED
+}
+
+func (x *ScanVerificationCase) GetViews() int64 {
+	if x != nil {
+		return x.Views
+	}
+	return 0
+}
+
+func (x *ScanVerificationCase) GetDetectors() int64 {
+	if x != nil {
+		return x.Detectors
+	}
+	return 0
+}
+
+func (x *ScanVerificationCase) GetDetectorSpacing() float64 {
+	if x != nil {
+		return x.DetectorSpacing
+	}
+	return 0
+}
+
+func (x *ScanVerificationCase) GetDetectorAngle() float64 {
+	if x != nil {
+		return x.DetectorAngle
+	}
+	return 0
+}
+
+func (x *ScanVerificationCase) GetOversampling() int32 {
+	if x != nil {
+		return x.Oversampling
+	}
+	return 0
+}
+
+func (x *ScanVerificationCase) GetRelativeRmsError() float64 {
+	if x != nil {
+		return x.RelativeRmsError
+	}
+	return 0
+}
+
+func (x *ScanVerificationCase) GetMaxAbsError() float64 {
+	if x != nil {
+		return x.MaxAbsError
+	}
+	return 0
+}
+
+func (x *ScanVerificationCase) GetPeak() float64 {
+	if x != nil {
+		return x.Peak
+	}
+	return 0
+}
+
+func (x *ScanVerificationCase) GetPixels() int64 {
+	if x != nil {
+		return x.Pixels
+	}
+	return 0
+}
+
+func (x *ScanVerificationCase) GetRatioToPlanned() float64 {
+	if x != nil {
+		return x.RatioToPlanned
+	}
+	return 0
+}
+
+func (x *ScanVerificationCase) GetSeconds() float64 {
+	if x != nil {
+		return x.Seconds
+	}
+	return 0
+}
+
+// ScanVerification checks a scan plan by reconstruction: an analytic
+// phantom fitted to the plan's radius and band limit is reconstructed at
+// the planned standard layout and at the same layout undersampled. It is
+// a numerical experiment on invented data; it always carries `caution`.
+type ScanVerification struct {
+	state protoimpl.MessageState `protogen:"open.v1"`
+	// How the phantom was built from rho and Omega.
+	Phantom string `protobuf:"bytes,1,opt,name=phantom,proto3" json:"phantom,omitempty"`
+	// The phantom's blobs.
+	Blobs []*ScanBlob `protobuf:"bytes,2,rep,name=blobs,proto3" json:"blobs,omitempty"`
+	// Relative level epsilon of the phantom's essential radius and band
+	// limit (0.001): every blob is below epsilon of its peak outside the
+	// disc, and its transform below epsilon of its peak beyond Omega.
+	Level float64 `protobuf:"fixed64,3,opt,name=level,proto3" json:"level,omitempty"`
+	// Essential radius of the phantom at that level (at most rho), length
+	// units.
+	PhantomRadius float64 `protobuf:"fixed64,4,opt,name=phantom_radius,json=phantomRadius,proto3" json:"phantom_radius,omitempty"`
+	// Essential band limit of the phantom at that level (Omega), radians
+	// per length unit.
+	PhantomBandwidth float64 `protobuf:"fixed64,5,opt,name=phantom_bandwidth,json=phantomBandwidth,proto3" json:"phantom_bandwidth,omitempty"`
+	// Pixels per side of the images.
+	ImageSize int32 `protobuf:"varint,6,opt,name=image_size,json=imageSize,proto3" json:"image_size,omitempty"`
+	// Side of the square image, centred on the rotation axis: 2 rho, length
+	// units.
+	ImageWidth float64 `protobuf:"fixed64,7,opt,name=image_width,json=imageWidth,proto3" json:"image_width,omitempty"`
+	// Window of the ramp filter ("Ram-Lak").
+	Window string `protobuf:"bytes,8,opt,name=window,proto3" json:"window,omitempty"`
+	// The reconstructions: "planned" first, then the undersampled ones,
+	// then the interlaced layout when offered (parallel beam).
+	Cases []*ScanVerificationCase `protobuf:"bytes,9,rep,name=cases,proto3" json:"cases,omitempty"`
+	// What was not verified and why.
+	Note string `protobuf:"bytes,10,opt,name=note,proto3" json:"note,omitempty"`
+	// Sampling mathematics on an analytic phantom, not a scan protocol:
+	// radiation dose, safety and clinical use are for licensed practice and
+	// local regulations.
+	Caution       string `protobuf:"bytes,11,opt,name=caution,proto3" json:"caution,omitempty"`
+	unknownFields protoimpl.UnknownFields
+	sizeCache     protoimpl.SizeCache
+}
+
+func (x *ScanVerification) Reset() {
+	*x = ScanVerification{}
+	mi := &file_foldbound_v1_scan_proto_msgTypes[4]
+	ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
+	ms.StoreMessageInfo(mi)
+}
+
+func (x *ScanVerification) String() string {
+	return protoimpl.X.MessageStringOf(x)
+}
+
+func (*ScanVerification) ProtoMessage() {}
+
+func (x *ScanVerification) ProtoReflect() protoreflect.Message {
+	mi := &file_foldbound_v1_scan_proto_msgTypes[4]
+	if x != nil {
+		ms := protoimpl.X.MessageStateOf(protoimpl.Pointer(x))
+		if ms.LoadMessageInfo() == nil {
+			ms.StoreMessageInfo(mi)
+		}
+		return ms
+	}
+	return mi.MessageOf(x)
+}
+
+// Deprecated: Use ScanVerification.ProtoReflect.Descriptor instead.
+func (*ScanVerification) Descriptor() ([]byte, []int) {
+	return file_foldbound_v1_scan_proto_rawDescGZIP(), []int{4}
+}
+
+func (x *ScanVerification) GetPhantom() string {
+	if x != nil {
+		return x.Phantom
+	}
+	return ""
+}
+
+func (x *ScanVerification) GetBlobs() []*ScanBlob {
+	if x != nil {
+		return x.Blobs
+	}
+	return nil
+}
+
+func (x *ScanVerification) GetLevel() float64 {
+	if x != nil {
+		return x.Level
+	}
+	return 0
+}
+
+func (x *ScanVerification) GetPhantomRadius() float64 {
+	if x != nil {
+		return x.PhantomRadius
+	}
+	return 0
+}
+
+func (x *ScanVerification) GetPhantomBandwidth() float64 {
+	if x != nil {
+		return x.PhantomBandwidth
+	}
+	return 0
+}
+
+func (x *ScanVerification) GetImageSize() int32 {
+	if x != nil {
+		return x.ImageSize
+	}
+	return 0
+}
+
+func (x *ScanVerification) GetImageWidth() float64 {
+	if x != nil {
+		return x.ImageWidth
+	}
+	return 0
+}
+
+func (x *ScanVerification) GetWindow() string {
+	if x != nil {
+		return x.Window
+	}
+	return ""
+}
+
+func (x *ScanVerification) GetCases() []*ScanVerificationCase {
+	if x != nil {
+		return x.Cases
+	}
+	return nil
+}
+
+func (x *ScanVerification) GetNote() string {
+	if x != nil {
+		return x.Note
+	}
+	return ""
+}
+
+func (x *ScanVerification) GetCaution() string {
+	if x != nil {
+		return x.Caution
+	}
+	return ""
+}
+
 var File_foldbound_v1_scan_proto protoreflect.FileDescriptor
 
 const file_foldbound_v1_scan_proto_rawDesc = "" +
@@ -440,7 +847,44 @@ const file_foldbound_v1_scan_proto_rawDesc = "" +
 	"interlaced\x18\t \x01(\v2\x18.foldbound.v1.ScanLayoutR\n" +
 	"interlaced\x12\x18\n" +
 	"\acaution\x18\n" +
-	" \x01(\tR\acaution*j\n" +
+	" \x01(\tR\acaution\"\x8c\x01\n" +
+	"\bScanBlob\x12\f\n" +
+	"\x01x\x18\x01 \x01(\x01R\x01x\x12\f\n" +
+	"\x01y\x18\x02 \x01(\x01R\x01y\x12\x17\n" +
+	"\asigma_u\x18\x03 \x01(\x01R\x06sigmaU\x12\x17\n" +
+	"\asigma_v\x18\x04 \x01(\x01R\x06sigmaV\x12\x14\n" +
+	"\x05angle\x18\x05 \x01(\x01R\x05angle\x12\x1c\n" +
+	"\tamplitude\x18\x06 \x01(\x01R\tamplitude\"\xca\x03\n" +
+	"\x14ScanVerificationCase\x12\x14\n" +
+	"\x05label\x18\x01 \x01(\tR\x05label\x120\n" +
+	"\x06scheme\x18\x02 \x01(\x0e2\x18.foldbound.v1.ScanSchemeR\x06scheme\x12\x14\n" +
+	"\x05views\x18\x03 \x01(\x03R\x05views\x12\x1c\n" +
+	"\tdetectors\x18\x04 \x01(\x03R\tdetectors\x12)\n" +
+	"\x10detector_spacing\x18\x05 \x01(\x01R\x0fdetectorSpacing\x12%\n" +
+	"\x0edetector_angle\x18\x06 \x01(\x01R\rdetectorAngle\x12\"\n" +
+	"\foversampling\x18\a \x01(\x05R\foversampling\x12,\n" +
+	"\x12relative_rms_error\x18\b \x01(\x01R\x10relativeRmsError\x12\"\n" +
+	"\rmax_abs_error\x18\t \x01(\x01R\vmaxAbsError\x12\x12\n" +
+	"\x04peak\x18\n" +
+	" \x01(\x01R\x04peak\x12\x16\n" +
+	"\x06pixels\x18\v \x01(\x03R\x06pixels\x12(\n" +
+	"\x10ratio_to_planned\x18\f \x01(\x01R\x0eratioToPlanned\x12\x18\n" +
+	"\aseconds\x18\r \x01(\x01R\aseconds\"\x84\x03\n" +
+	"\x10ScanVerification\x12\x18\n" +
+	"\aphantom\x18\x01 \x01(\tR\aphantom\x12,\n" +
+	"\x05blobs\x18\x02 \x03(\v2\x16.foldbound.v1.ScanBlobR\x05blobs\x12\x14\n" +
+	"\x05level\x18\x03 \x01(\x01R\x05level\x12%\n" +
+	"\x0ephantom_radius\x18\x04 \x01(\x01R\rphantomRadius\x12+\n" +
+	"\x11phantom_bandwidth\x18\x05 \x01(\x01R\x10phantomBandwidth\x12\x1d\n" +
+	"\n" +
+	"image_size\x18\x06 \x01(\x05R\timageSize\x12\x1f\n" +
+	"\vimage_width\x18\a \x01(\x01R\n" +
+	"imageWidth\x12\x16\n" +
+	"\x06window\x18\b \x01(\tR\x06window\x128\n" +
+	"\x05cases\x18\t \x03(\v2\".foldbound.v1.ScanVerificationCaseR\x05cases\x12\x12\n" +
+	"\x04note\x18\n" +
+	" \x01(\tR\x04note\x12\x18\n" +
+	"\acaution\x18\v \x01(\tR\acaution*j\n" +
 	"\fScanGeometry\x12\x1d\n" +
 	"\x19SCAN_GEOMETRY_UNSPECIFIED\x10\x00\x12\x1f\n" +
 	"\x1bSCAN_GEOMETRY_PARALLEL_BEAM\x10\x01\x12\x1a\n" +
@@ -464,23 +908,29 @@ func file_foldbound_v1_scan_proto_rawDescGZIP() []byte {
 }
 
 var file_foldbound_v1_scan_proto_enumTypes = make([]protoimpl.EnumInfo, 2)
-var file_foldbound_v1_scan_proto_msgTypes = make([]protoimpl.MessageInfo, 2)
+var file_foldbound_v1_scan_proto_msgTypes = make([]protoimpl.MessageInfo, 5)
 var file_foldbound_v1_scan_proto_goTypes = []any{
-	(ScanGeometry)(0),  // 0: foldbound.v1.ScanGeometry
-	(ScanScheme)(0),    // 1: foldbound.v1.ScanScheme
-	(*ScanLayout)(nil), // 2: foldbound.v1.ScanLayout
-	(*ScanPlan)(nil),   // 3: foldbound.v1.ScanPlan
+	(ScanGeometry)(0),            // 0: foldbound.v1.ScanGeometry
+	(ScanScheme)(0),              // 1: foldbound.v1.ScanScheme
+	(*ScanLayout)(nil),           // 2: foldbound.v1.ScanLayout
+	(*ScanPlan)(nil),             // 3: foldbound.v1.ScanPlan
+	(*ScanBlob)(nil),             // 4: foldbound.v1.ScanBlob
+	(*ScanVerificationCase)(nil), // 5: foldbound.v1.ScanVerificationCase
+	(*ScanVerification)(nil),     // 6: foldbound.v1.ScanVerification
 }
 var file_foldbound_v1_scan_proto_depIdxs = []int32{
 	1, // 0: foldbound.v1.ScanLayout.scheme:type_name -> foldbound.v1.ScanScheme
 	0, // 1: foldbound.v1.ScanPlan.geometry:type_name -> foldbound.v1.ScanGeometry
 	2, // 2: foldbound.v1.ScanPlan.standard:type_name -> foldbound.v1.ScanLayout
 	2, // 3: foldbound.v1.ScanPlan.interlaced:type_name -> foldbound.v1.ScanLayout
-	4, // [4:4] is the sub-list for method output_type
-	4, // [4:4] is the sub-list for method input_type
-	4, // [4:4] is the sub-list for extension type_name
-	4, // [4:4] is the sub-list for extension extendee
-	0, // [0:4] is the sub-list for field type_name
+	1, // 4: foldbound.v1.ScanVerificationCase.scheme:type_name -> foldbound.v1.ScanScheme
+	4, // 5: foldbound.v1.ScanVerification.blobs:type_name -> foldbound.v1.ScanBlob
+	5, // 6: foldbound.v1.ScanVerification.cases:type_name -> foldbound.v1.ScanVerificationCase
+	7, // [7:7] is the sub-list for method output_type
+	7, // [7:7] is the sub-list for method input_type
+	7, // [7:7] is the sub-list for extension type_name
+	7, // [7:7] is the sub-list for extension extendee
+	0, // [0:7] is the sub-list for field type_name
 }
 
 func init() { file_foldbound_v1_scan_proto_init() }
@@ -494,7 +944,7 @@ func file_foldbound_v1_scan_proto_init() {
 			GoPackagePath: reflect.TypeOf(x{}).PkgPath(),
 			RawDescriptor: unsafe.Slice(unsafe.StringData(file_foldbound_v1_scan_proto_rawDesc), len(file_foldbound_v1_scan_proto_rawDesc)),
 			NumEnums:      2,
-			NumMessages:   2,
+			NumMessages:   5,
 			NumExtensions: 0,
 			NumServices:   0,
 		},

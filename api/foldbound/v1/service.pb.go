@@ -770,9 +770,21 @@ type PlanScanRequest struct {
 	SourceRadius float64 `protobuf:"fixed64,5,opt,name=source_radius,json=sourceRadius,proto3" json:"source_radius,omitempty"`
 	// Sources over 180 degrees plus the fan angle instead of 360 degrees
 	// (fan beam only).
-	ShortScan     bool `protobuf:"varint,6,opt,name=short_scan,json=shortScan,proto3" json:"short_scan,omitempty"`
-	unknownFields protoimpl.UnknownFields
-	sizeCache     protoimpl.SizeCache
+	ShortScan bool `protobuf:"varint,6,opt,name=short_scan,json=shortScan,proto3" json:"short_scan,omitempty"`
+	// Also check the plan by reconstruction (PlanScanResponse.verification):
+	// a phantom fitted to radius and band limit is reconstructed at the
+	// planned standard layout, with half the views, with twice the detector
+	// spacing (angle) and at the interlaced layout when offered. Needs
+	// radius * Omega >= 33.6; fan beam needs a full scan and source_radius >
+	// sqrt(2) * radius. It costs up to about ten seconds of CPU time; larger
+	// work is refused with RESOURCE_EXHAUSTED naming verify_image_size.
+	Verify bool `protobuf:"varint,7,opt,name=verify,proto3" json:"verify,omitempty"`
+	// Pixels per side of the verification images (over the square of side
+	// 2 * radius): 0 means 256, otherwise 16 to 1024 (above 1024:
+	// RESOURCE_EXHAUSTED). Only with verify.
+	VerifyImageSize int32 `protobuf:"varint,8,opt,name=verify_image_size,json=verifyImageSize,proto3" json:"verify_image_size,omitempty"`
+	unknownFields   protoimpl.UnknownFields
+	sizeCache       protoimpl.SizeCache
 }
 
 func (x *PlanScanRequest) Reset() {
@@ -847,6 +859,20 @@ func (x *PlanScanRequest) GetShortScan() bool {
 	return false
 }
 
+func (x *PlanScanRequest) GetVerify() bool {
+	if x != nil {
+		return x.Verify
+	}
+	return false
+}
+
+func (x *PlanScanRequest) GetVerifyImageSize() int32 {
+	if x != nil {
+		return x.VerifyImageSize
+	}
+	return 0
+}
+
 // PlanScanResponse is the scan plan.
 type PlanScanResponse struct {
 	state protoimpl.MessageState `protogen:"open.v1"`
@@ -854,7 +880,9 @@ type PlanScanResponse struct {
 	Plan *ScanPlan `protobuf:"bytes,1,opt,name=plan,proto3" json:"plan,omitempty"`
 	// The convention of the band limit: always the angular one (radians per
 	// length unit), as in the request.
-	Convention    *ConventionUsed `protobuf:"bytes,2,opt,name=convention,proto3" json:"convention,omitempty"`
+	Convention *ConventionUsed `protobuf:"bytes,2,opt,name=convention,proto3" json:"convention,omitempty"`
+	// The reconstruction check, when the request asks for it.
+	Verification  *ScanVerification `protobuf:"bytes,3,opt,name=verification,proto3" json:"verification,omitempty"`
 	unknownFields protoimpl.UnknownFields
 	sizeCache     protoimpl.SizeCache
 }
@@ -899,6 +927,13 @@ func (x *PlanScanResponse) GetPlan() *ScanPlan {
 func (x *PlanScanResponse) GetConvention() *ConventionUsed {
 	if x != nil {
 		return x.Convention
+	}
+	return nil
+}
+
+func (x *PlanScanResponse) GetVerification() *ScanVerification {
+	if x != nil {
+		return x.Verification
 	}
 	return nil
 }
@@ -2096,7 +2131,7 @@ const file_foldbound_v1_service_proto_rawDesc = "" +
 	"convention\x18\x06 \x01(\v2\x1c.foldbound.v1.ConventionUsedR\n" +
 	"convention\x12\x18\n" +
 	"\asubject\x18\a \x01(\tR\asubject\x12(\n" +
-	"\x10worst_case_shift\x18\b \x01(\bR\x0eworstCaseShift\"\xe3\x01\n" +
+	"\x10worst_case_shift\x18\b \x01(\bR\x0eworstCaseShift\"\xa7\x02\n" +
 	"\x0fPlanScanRequest\x126\n" +
 	"\bgeometry\x18\x01 \x01(\x0e2\x1a.foldbound.v1.ScanGeometryR\bgeometry\x12\x16\n" +
 	"\x06radius\x18\x02 \x01(\x01R\x06radius\x12\x1c\n" +
@@ -2106,12 +2141,15 @@ const file_foldbound_v1_service_proto_rawDesc = "" +
 	"resolution\x12#\n" +
 	"\rsource_radius\x18\x05 \x01(\x01R\fsourceRadius\x12\x1d\n" +
 	"\n" +
-	"short_scan\x18\x06 \x01(\bR\tshortScan\"|\n" +
+	"short_scan\x18\x06 \x01(\bR\tshortScan\x12\x16\n" +
+	"\x06verify\x18\a \x01(\bR\x06verify\x12*\n" +
+	"\x11verify_image_size\x18\b \x01(\x05R\x0fverifyImageSize\"\xc0\x01\n" +
 	"\x10PlanScanResponse\x12*\n" +
 	"\x04plan\x18\x01 \x01(\v2\x16.foldbound.v1.ScanPlanR\x04plan\x12<\n" +
 	"\n" +
 	"convention\x18\x02 \x01(\v2\x1c.foldbound.v1.ConventionUsedR\n" +
-	"convention\"\x8b\x02\n" +
+	"convention\x12B\n" +
+	"\fverification\x18\x03 \x01(\v2\x1e.foldbound.v1.ScanVerificationR\fverification\"\x8b\x02\n" +
 	"\x16LatticeAliasSumRequest\x12,\n" +
 	"\x06family\x18\x01 \x01(\v2\x14.foldbound.v1.FamilyR\x06family\x12/\n" +
 	"\alattice\x18\x02 \x01(\v2\x15.foldbound.v1.LatticeR\alattice\x12\x14\n" +
@@ -2264,14 +2302,15 @@ var file_foldbound_v1_service_proto_goTypes = []any{
 	(*Verification)(nil),            // 30: foldbound.v1.Verification
 	(ScanGeometry)(0),               // 31: foldbound.v1.ScanGeometry
 	(*ScanPlan)(nil),                // 32: foldbound.v1.ScanPlan
-	(*Lattice)(nil),                 // 33: foldbound.v1.Lattice
-	(*LatticeMethod)(nil),           // 34: foldbound.v1.LatticeMethod
-	(*LatticeInfo)(nil),             // 35: foldbound.v1.LatticeInfo
-	(*EnvelopeTerm)(nil),            // 36: foldbound.v1.EnvelopeTerm
-	(*LatticePlan)(nil),             // 37: foldbound.v1.LatticePlan
-	(KernelShape)(0),                // 38: foldbound.v1.KernelShape
-	(*KernelOption)(nil),            // 39: foldbound.v1.KernelOption
-	(*KernelCheck)(nil),             // 40: foldbound.v1.KernelCheck
+	(*ScanVerification)(nil),        // 33: foldbound.v1.ScanVerification
+	(*Lattice)(nil),                 // 34: foldbound.v1.Lattice
+	(*LatticeMethod)(nil),           // 35: foldbound.v1.LatticeMethod
+	(*LatticeInfo)(nil),             // 36: foldbound.v1.LatticeInfo
+	(*EnvelopeTerm)(nil),            // 37: foldbound.v1.EnvelopeTerm
+	(*LatticePlan)(nil),             // 38: foldbound.v1.LatticePlan
+	(KernelShape)(0),                // 39: foldbound.v1.KernelShape
+	(*KernelOption)(nil),            // 40: foldbound.v1.KernelOption
+	(*KernelCheck)(nil),             // 41: foldbound.v1.KernelCheck
 }
 var file_foldbound_v1_service_proto_depIdxs = []int32{
 	18, // 0: foldbound.v1.AliasSumRequest.family:type_name -> foldbound.v1.Family
@@ -2307,63 +2346,64 @@ var file_foldbound_v1_service_proto_depIdxs = []int32{
 	31, // 30: foldbound.v1.PlanScanRequest.geometry:type_name -> foldbound.v1.ScanGeometry
 	32, // 31: foldbound.v1.PlanScanResponse.plan:type_name -> foldbound.v1.ScanPlan
 	24, // 32: foldbound.v1.PlanScanResponse.convention:type_name -> foldbound.v1.ConventionUsed
-	18, // 33: foldbound.v1.LatticeAliasSumRequest.family:type_name -> foldbound.v1.Family
-	33, // 34: foldbound.v1.LatticeAliasSumRequest.lattice:type_name -> foldbound.v1.Lattice
-	20, // 35: foldbound.v1.LatticeAliasSumRequest.convention:type_name -> foldbound.v1.Convention
-	21, // 36: foldbound.v1.LatticeAliasSumRequest.settings:type_name -> foldbound.v1.Settings
-	22, // 37: foldbound.v1.LatticeAliasSumResponse.sampled:type_name -> foldbound.v1.ComplexInterval
-	22, // 38: foldbound.v1.LatticeAliasSumResponse.exact:type_name -> foldbound.v1.ComplexInterval
-	22, // 39: foldbound.v1.LatticeAliasSumResponse.alias:type_name -> foldbound.v1.ComplexInterval
-	34, // 40: foldbound.v1.LatticeAliasSumResponse.method:type_name -> foldbound.v1.LatticeMethod
-	24, // 41: foldbound.v1.LatticeAliasSumResponse.convention:type_name -> foldbound.v1.ConventionUsed
-	35, // 42: foldbound.v1.LatticeAliasSumResponse.lattice:type_name -> foldbound.v1.LatticeInfo
-	36, // 43: foldbound.v1.CompareLatticesRequest.spectral:type_name -> foldbound.v1.EnvelopeTerm
-	33, // 44: foldbound.v1.CompareLatticesRequest.candidates:type_name -> foldbound.v1.Lattice
-	20, // 45: foldbound.v1.CompareLatticesRequest.convention:type_name -> foldbound.v1.Convention
-	21, // 46: foldbound.v1.CompareLatticesRequest.settings:type_name -> foldbound.v1.Settings
-	37, // 47: foldbound.v1.CompareLatticesResponse.reference:type_name -> foldbound.v1.LatticePlan
-	37, // 48: foldbound.v1.CompareLatticesResponse.plans:type_name -> foldbound.v1.LatticePlan
-	24, // 49: foldbound.v1.CompareLatticesResponse.convention:type_name -> foldbound.v1.ConventionUsed
-	38, // 50: foldbound.v1.PlanKernelRequest.shape:type_name -> foldbound.v1.KernelShape
-	39, // 51: foldbound.v1.PlanKernelResponse.options:type_name -> foldbound.v1.KernelOption
-	40, // 52: foldbound.v1.PlanKernelResponse.verification:type_name -> foldbound.v1.KernelCheck
-	0,  // 53: foldbound.v1.BatchRequest.alias_sum:type_name -> foldbound.v1.AliasSumRequest
-	2,  // 54: foldbound.v1.BatchRequest.error_budget:type_name -> foldbound.v1.ErrorBudgetRequest
-	4,  // 55: foldbound.v1.BatchRequest.plan_grid:type_name -> foldbound.v1.PlanGridRequest
-	6,  // 56: foldbound.v1.BatchRequest.plan_scan:type_name -> foldbound.v1.PlanScanRequest
-	8,  // 57: foldbound.v1.BatchRequest.lattice_alias_sum:type_name -> foldbound.v1.LatticeAliasSumRequest
-	10, // 58: foldbound.v1.BatchRequest.compare_lattices:type_name -> foldbound.v1.CompareLatticesRequest
-	12, // 59: foldbound.v1.BatchRequest.plan_kernel:type_name -> foldbound.v1.PlanKernelRequest
-	1,  // 60: foldbound.v1.BatchResponse.alias_sum:type_name -> foldbound.v1.AliasSumResponse
-	3,  // 61: foldbound.v1.BatchResponse.error_budget:type_name -> foldbound.v1.ErrorBudgetResponse
-	5,  // 62: foldbound.v1.BatchResponse.plan_grid:type_name -> foldbound.v1.PlanGridResponse
-	7,  // 63: foldbound.v1.BatchResponse.plan_scan:type_name -> foldbound.v1.PlanScanResponse
-	9,  // 64: foldbound.v1.BatchResponse.lattice_alias_sum:type_name -> foldbound.v1.LatticeAliasSumResponse
-	11, // 65: foldbound.v1.BatchResponse.compare_lattices:type_name -> foldbound.v1.CompareLatticesResponse
-	13, // 66: foldbound.v1.BatchResponse.plan_kernel:type_name -> foldbound.v1.PlanKernelResponse
-	16, // 67: foldbound.v1.BatchResponse.error:type_name -> foldbound.v1.ItemError
-	17, // 68: foldbound.v1.ItemError.field_violations:type_name -> foldbound.v1.FieldViolation
-	0,  // 69: foldbound.v1.SamplingService.AliasSum:input_type -> foldbound.v1.AliasSumRequest
-	2,  // 70: foldbound.v1.SamplingService.ErrorBudget:input_type -> foldbound.v1.ErrorBudgetRequest
-	4,  // 71: foldbound.v1.SamplingService.PlanGrid:input_type -> foldbound.v1.PlanGridRequest
-	6,  // 72: foldbound.v1.SamplingService.PlanScan:input_type -> foldbound.v1.PlanScanRequest
-	8,  // 73: foldbound.v1.SamplingService.LatticeAliasSum:input_type -> foldbound.v1.LatticeAliasSumRequest
-	10, // 74: foldbound.v1.SamplingService.CompareLattices:input_type -> foldbound.v1.CompareLatticesRequest
-	12, // 75: foldbound.v1.SamplingService.PlanKernel:input_type -> foldbound.v1.PlanKernelRequest
-	14, // 76: foldbound.v1.SamplingService.Batch:input_type -> foldbound.v1.BatchRequest
-	1,  // 77: foldbound.v1.SamplingService.AliasSum:output_type -> foldbound.v1.AliasSumResponse
-	3,  // 78: foldbound.v1.SamplingService.ErrorBudget:output_type -> foldbound.v1.ErrorBudgetResponse
-	5,  // 79: foldbound.v1.SamplingService.PlanGrid:output_type -> foldbound.v1.PlanGridResponse
-	7,  // 80: foldbound.v1.SamplingService.PlanScan:output_type -> foldbound.v1.PlanScanResponse
-	9,  // 81: foldbound.v1.SamplingService.LatticeAliasSum:output_type -> foldbound.v1.LatticeAliasSumResponse
-	11, // 82: foldbound.v1.SamplingService.CompareLattices:output_type -> foldbound.v1.CompareLatticesResponse
-	13, // 83: foldbound.v1.SamplingService.PlanKernel:output_type -> foldbound.v1.PlanKernelResponse
-	15, // 84: foldbound.v1.SamplingService.Batch:output_type -> foldbound.v1.BatchResponse
-	77, // [77:85] is the sub-list for method output_type
-	69, // [69:77] is the sub-list for method input_type
-	69, // [69:69] is the sub-list for extension type_name
-	69, // [69:69] is the sub-list for extension extendee
-	0,  // [0:69] is the sub-list for field type_name
+	33, // 33: foldbound.v1.PlanScanResponse.verification:type_name -> foldbound.v1.ScanVerification
+	18, // 34: foldbound.v1.LatticeAliasSumRequest.family:type_name -> foldbound.v1.Family
+	34, // 35: foldbound.v1.LatticeAliasSumRequest.lattice:type_name -> foldbound.v1.Lattice
+	20, // 36: foldbound.v1.LatticeAliasSumRequest.convention:type_name -> foldbound.v1.Convention
+	21, // 37: foldbound.v1.LatticeAliasSumRequest.settings:type_name -> foldbound.v1.Settings
+	22, // 38: foldbound.v1.LatticeAliasSumResponse.sampled:type_name -> foldbound.v1.ComplexInterval
+	22, // 39: foldbound.v1.LatticeAliasSumResponse.exact:type_name -> foldbound.v1.ComplexInterval
+	22, // 40: foldbound.v1.LatticeAliasSumResponse.alias:type_name -> foldbound.v1.ComplexInterval
+	35, // 41: foldbound.v1.LatticeAliasSumResponse.method:type_name -> foldbound.v1.LatticeMethod
+	24, // 42: foldbound.v1.LatticeAliasSumResponse.convention:type_name -> foldbound.v1.ConventionUsed
+	36, // 43: foldbound.v1.LatticeAliasSumResponse.lattice:type_name -> foldbound.v1.LatticeInfo
+	37, // 44: foldbound.v1.CompareLatticesRequest.spectral:type_name -> foldbound.v1.EnvelopeTerm
+	34, // 45: foldbound.v1.CompareLatticesRequest.candidates:type_name -> foldbound.v1.Lattice
+	20, // 46: foldbound.v1.CompareLatticesRequest.convention:type_name -> foldbound.v1.Convention
+	21, // 47: foldbound.v1.CompareLatticesRequest.settings:type_name -> foldbound.v1.Settings
+	38, // 48: foldbound.v1.CompareLatticesResponse.reference:type_name -> foldbound.v1.LatticePlan
+	38, // 49: foldbound.v1.CompareLatticesResponse.plans:type_name -> foldbound.v1.LatticePlan
+	24, // 50: foldbound.v1.CompareLatticesResponse.convention:type_name -> foldbound.v1.ConventionUsed
+	39, // 51: foldbound.v1.PlanKernelRequest.shape:type_name -> foldbound.v1.KernelShape
+	40, // 52: foldbound.v1.PlanKernelResponse.options:type_name -> foldbound.v1.KernelOption
+	41, // 53: foldbound.v1.PlanKernelResponse.verification:type_name -> foldbound.v1.KernelCheck
+	0,  // 54: foldbound.v1.BatchRequest.alias_sum:type_name -> foldbound.v1.AliasSumRequest
+	2,  // 55: foldbound.v1.BatchRequest.error_budget:type_name -> foldbound.v1.ErrorBudgetRequest
+	4,  // 56: foldbound.v1.BatchRequest.plan_grid:type_name -> foldbound.v1.PlanGridRequest
+	6,  // 57: foldbound.v1.BatchRequest.plan_scan:type_name -> foldbound.v1.PlanScanRequest
+	8,  // 58: foldbound.v1.BatchRequest.lattice_alias_sum:type_name -> foldbound.v1.LatticeAliasSumRequest
+	10, // 59: foldbound.v1.BatchRequest.compare_lattices:type_name -> foldbound.v1.CompareLatticesRequest
+	12, // 60: foldbound.v1.BatchRequest.plan_kernel:type_name -> foldbound.v1.PlanKernelRequest
+	1,  // 61: foldbound.v1.BatchResponse.alias_sum:type_name -> foldbound.v1.AliasSumResponse
+	3,  // 62: foldbound.v1.BatchResponse.error_budget:type_name -> foldbound.v1.ErrorBudgetResponse
+	5,  // 63: foldbound.v1.BatchResponse.plan_grid:type_name -> foldbound.v1.PlanGridResponse
+	7,  // 64: foldbound.v1.BatchResponse.plan_scan:type_name -> foldbound.v1.PlanScanResponse
+	9,  // 65: foldbound.v1.BatchResponse.lattice_alias_sum:type_name -> foldbound.v1.LatticeAliasSumResponse
+	11, // 66: foldbound.v1.BatchResponse.compare_lattices:type_name -> foldbound.v1.CompareLatticesResponse
+	13, // 67: foldbound.v1.BatchResponse.plan_kernel:type_name -> foldbound.v1.PlanKernelResponse
+	16, // 68: foldbound.v1.BatchResponse.error:type_name -> foldbound.v1.ItemError
+	17, // 69: foldbound.v1.ItemError.field_violations:type_name -> foldbound.v1.FieldViolation
+	0,  // 70: foldbound.v1.SamplingService.AliasSum:input_type -> foldbound.v1.AliasSumRequest
+	2,  // 71: foldbound.v1.SamplingService.ErrorBudget:input_type -> foldbound.v1.ErrorBudgetRequest
+	4,  // 72: foldbound.v1.SamplingService.PlanGrid:input_type -> foldbound.v1.PlanGridRequest
+	6,  // 73: foldbound.v1.SamplingService.PlanScan:input_type -> foldbound.v1.PlanScanRequest
+	8,  // 74: foldbound.v1.SamplingService.LatticeAliasSum:input_type -> foldbound.v1.LatticeAliasSumRequest
+	10, // 75: foldbound.v1.SamplingService.CompareLattices:input_type -> foldbound.v1.CompareLatticesRequest
+	12, // 76: foldbound.v1.SamplingService.PlanKernel:input_type -> foldbound.v1.PlanKernelRequest
+	14, // 77: foldbound.v1.SamplingService.Batch:input_type -> foldbound.v1.BatchRequest
+	1,  // 78: foldbound.v1.SamplingService.AliasSum:output_type -> foldbound.v1.AliasSumResponse
+	3,  // 79: foldbound.v1.SamplingService.ErrorBudget:output_type -> foldbound.v1.ErrorBudgetResponse
+	5,  // 80: foldbound.v1.SamplingService.PlanGrid:output_type -> foldbound.v1.PlanGridResponse
+	7,  // 81: foldbound.v1.SamplingService.PlanScan:output_type -> foldbound.v1.PlanScanResponse
+	9,  // 82: foldbound.v1.SamplingService.LatticeAliasSum:output_type -> foldbound.v1.LatticeAliasSumResponse
+	11, // 83: foldbound.v1.SamplingService.CompareLattices:output_type -> foldbound.v1.CompareLatticesResponse
+	13, // 84: foldbound.v1.SamplingService.PlanKernel:output_type -> foldbound.v1.PlanKernelResponse
+	15, // 85: foldbound.v1.SamplingService.Batch:output_type -> foldbound.v1.BatchResponse
+	78, // [78:86] is the sub-list for method output_type
+	70, // [70:78] is the sub-list for method input_type
+	70, // [70:70] is the sub-list for extension type_name
+	70, // [70:70] is the sub-list for extension extendee
+	0,  // [0:70] is the sub-list for field type_name
 }
 
 func init() { file_foldbound_v1_service_proto_init() }

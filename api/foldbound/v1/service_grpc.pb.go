@@ -66,8 +66,10 @@ type SamplingServiceClient interface {
 	// PlanScan returns the detector spacing, detector count and number of
 	// views that sample a parallel-beam or fan-beam tomography scan of an
 	// object of given radius and essential band limit, for the standard and
-	// the interlaced scheme. The answer is sampling mathematics, not a scan
-	// protocol, and says so in its caution.
+	// the interlaced scheme; optionally it checks the plan by reconstructing
+	// an analytic phantom at the planned and at undersampled layouts. The
+	// answer is sampling mathematics, not a scan protocol, and says so in its
+	// caution.
 	PlanScan(ctx context.Context, in *PlanScanRequest, opts ...grpc.CallOption) (*PlanScanResponse, error)
 	// LatticeAliasSum computes the sampled sum of an n-dimensional family on
 	// a shifted lattice (built-in or given by a generator matrix), the exact
@@ -225,8 +227,10 @@ type SamplingServiceServer interface {
 	// PlanScan returns the detector spacing, detector count and number of
 	// views that sample a parallel-beam or fan-beam tomography scan of an
 	// object of given radius and essential band limit, for the standard and
-	// the interlaced scheme. The answer is sampling mathematics, not a scan
-	// protocol, and says so in its caution.
+	// the interlaced scheme; optionally it checks the plan by reconstructing
+	// an analytic phantom at the planned and at undersampled layouts. The
+	// answer is sampling mathematics, not a scan protocol, and says so in its
+	// caution.
 	PlanScan(context.Context, *PlanScanRequest) (*PlanScanResponse, error)
 	// LatticeAliasSum computes the sampled sum of an n-dimensional family on
 	// a shifted lattice (built-in or given by a generator matrix), the exact
