@@ -208,6 +208,53 @@ func TestScanCommand(t *testing.T) {
 	}
 }
 
+// TestScanVerify runs the reconstruction check from the command line:
+// the planned layout must reconstruct better than the same layout with half
+// the views or twice the detector spacing (the sampling conditions of
+// Natterer, Acta Numerica 8 (1999) §2, text re-read).
+func TestScanVerify(t *testing.T) {
+	out, errOut, code := runCLI(t, "scan", "--radius", "20", "--resolution", "0.5", "--verify", "--image-size", "64")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	for _, want := range []string{"reconstruction check", "planned", "half the views", "twice the detector spacing", "relative RMS error", "not a scan protocol"} {
+		if !strings.Contains(out, want) {
+			t.Errorf("output lacks %q:\n%s", want, out)
+		}
+	}
+	out, errOut, code = runCLI(t, "scan", "--radius", "20", "--resolution", "0.5", "--verify", "--image-size", "64", "--json")
+	if code != 0 {
+		t.Fatalf("--json: exit %d: %s", code, errOut)
+	}
+	var res pb.PlanScanResponse
+	if err := protojson.Unmarshal([]byte(out), &res); err != nil {
+		t.Fatal(err)
+	}
+	cases := res.GetVerification().GetCases()
+	if len(cases) < 3 || cases[0].GetLabel() != "planned" {
+		t.Fatalf("verification cases = %v; want planned first and two undersampled", cases)
+	}
+	for _, c := range cases[1:3] {
+		if c.GetRelativeRmsError() <= 2*cases[0].GetRelativeRmsError() {
+			t.Errorf("%s: relative RMS error %g, want above twice the planned %g", c.GetLabel(), c.GetRelativeRmsError(), cases[0].GetRelativeRmsError())
+		}
+	}
+	for _, tt := range []struct {
+		args []string
+		want string
+	}{
+		{[]string{"--image-size", "64"}, "--image-size needs --verify"},
+		{[]string{"--verify", "--image-size", "4096"}, "ResourceExhausted"},
+		{[]string{"--verify", "--image-size", "8"}, "InvalidArgument"},
+	} {
+		args := append([]string{"scan", "--radius", "20", "--resolution", "0.5"}, tt.args...)
+		_, errOut, code := runCLI(t, args...)
+		if code == 0 || !strings.Contains(errOut, tt.want) {
+			t.Errorf("scan %v: exit %d, %q; want an error with %q", tt.args, code, errOut, tt.want)
+		}
+	}
+}
+
 func TestLatticeCommands(t *testing.T) {
 	out, errOut, code := runCLI(t, "lattice", "sum", "--family", "radial-gaussian(dim=2, sigma=1)", "--lattice", "hexagonal", "--scale", "1.6")
 	if code != 0 {
