@@ -372,6 +372,64 @@ func (s *aliasSummer) spectralTermsEstimate(P Interval, goal float64) int64 {
 	return hi
 }
 
+// aliasBlocker is implemented by families with an even |F| that can bound
+// a block of alias copies in closed form, far below the copies' envelope
+// where the copies sit at zeros of F (BSplineFamily at the steps of its
+// partition of unity).
+type aliasBlocker interface {
+	// aliasBlock returns an upper bound of Σ_{j=0}^{J-1} |F(x0 + jP)| for
+	// every x0 in the interval, given x0.Lo > 0 and P.Lo > 0, or +Inf.
+	aliasBlock(x0, P Interval, J int64) float64
+}
+
+// blockAlias is spectralAlias in abs mode for a family that bounds blocks
+// of copies (aliasBlocker). It takes the number of copies L on each side
+// as spectralAlias would, the least whose rigorous tail meets the goal, but
+// bounds the copies ±1 … ±L by two blocks instead of summing them; the
+// enclosure is [0, blocks] widened by the tail. ok is false when the
+// blocks are not far below the goal: then the copies must be summed.
+func (s *aliasSummer) blockAlias(bl aliasBlocker, P Interval, F Complex, limit int64) (Complex, Method, bool) {
+	if s.xi.Mag() >= P.Lo {
+		return Complex{}, Method{}, false
+	}
+	goal := s.goal(0x1p-60 * F.Mag())
+	enough := func(L int64) bool { return 2*s.spectralEstimate(P, L) <= goal }
+	// The least L ≥ 1 the estimate accepts, by doubling and bisection.
+	hi := int64(1)
+	for !enough(hi) {
+		if hi >= limit {
+			return Complex{}, Method{}, false
+		}
+		hi = min(2*hi, limit)
+	}
+	lo := hi / 2 // 0, or a count the estimate rejects
+	for hi-lo > 1 {
+		mid := lo + (hi-lo)/2
+		if enough(mid) {
+			hi = mid
+		} else {
+			lo = mid
+		}
+	}
+	L := hi
+	tail := s.spectralTail(P, L)
+	for tail > goal {
+		if L >= limit {
+			return Complex{}, Method{}, false
+		}
+		L = min(2*L, limit)
+		tail = s.spectralTail(P, L)
+	}
+	// Right copies ξ + lP and, |F| being even, left copies |F(lP - ξ)|.
+	B := addUp(bl.aliasBlock(s.xi.Add(P), P, L), bl.aliasBlock(P.Sub(s.xi), P, L))
+	if !(B <= goal/16) {
+		return Complex{}, Method{}, false
+	}
+	sum := RealC(Interval{0, B}).Inflate(tail)
+	rem := addUp(B, tail)
+	return sum, Method{Side: SpectralSide, AliasTerms: 2 * L, Remainder: rem, RemainderFrom: s.spec.Kinds()}, true
+}
+
 // spectralAlias sums the aliased copies l = ±1, …, ±L of F with the phase
 // e^{i2πls/h}, adding copies until the envelope bounds the rest below the
 // goal.
@@ -379,6 +437,11 @@ func (s *aliasSummer) spectralAlias(P Interval, F Complex, limit int64) (Complex
 	tail := 2 * s.firstCopies(P)
 	if math.IsInf(tail, 1) {
 		return Complex{}, Method{}, false, invalidf("family", "%v: spectral envelope is not summable; the spectral side cannot be used", s.f)
+	}
+	if bl, ok := s.f.(aliasBlocker); ok && s.abs {
+		if sum, m, ok := s.blockAlias(bl, P, F, limit); ok {
+			return sum, m, true, nil
+		}
 	}
 	// Phase e^{i2πs/h}: reduce s/h modulo 1 first so that large shifts keep
 	// an accurate phase.

@@ -310,6 +310,7 @@ func newPlanner1(ctx context.Context, req PlanRequest) *planner1 {
 	if req.Family != nil {
 		m.val, m.absTr, m.tr = pointEvaluators(req.Family)
 		m.rayVal, m.rayTr = pointRays(req.Family)
+		m.blockTr = pointBlock(req.Family)
 		m.convexC, m.convexD, m.convex = convexTails(req.Family)
 		switch req.Family.(type) {
 		case GaussianFamily, ExponentialFamily, LorentzianFamily, SechFamily, SechSquaredFamily, BSplineFamily:
@@ -779,7 +780,9 @@ func (p *planner1) compactCandidates(best int64) (int64, float64) {
 				continue
 			}
 			p.m.capped = 0
+			p.m.stopAbove = (p.tol - rest) / weight(p.m.wA)
 			a := p.m.weightedAlias(hh)
+			p.m.stopAbove = 0
 			if a+rest <= p.tol {
 				return n, hh
 			}

@@ -23,6 +23,14 @@ type planModel struct {
 	// rayVal and rayTr sum |f| and |F| along rays in closed form
 	// (pointRays), for some even families centred at 0; nil otherwise.
 	rayVal, rayTr func(x, h float64) float64
+	// blockTr bounds J copies of |F| along the ray x0 + jP in float64
+	// (aliasBlocker), for the families that have it; nil otherwise.
+	blockTr func(x0, P float64, J int) float64
+	// prefix is scratch space for absAlias.
+	prefix []float64
+	// stopAbove, when > 0, lets absAlias return any value above it as soon
+	// as its partial sum exceeds it (a caller that only compares).
+	stopAbove float64
 	// |f| is convex on x ≤ convexC - convexD and x ≥ convexC + convexD
 	// when convex is set (convexTails).
 	convex           bool
@@ -381,6 +389,14 @@ func (m *planModel) exactAlias(xi, P, h float64) float64 {
 	if !fixed && m.rayTr != nil && math.Abs(xi) <= P {
 		return m.rayAlias(xi, P)
 	}
+	if !fixed && m.blockTr != nil && math.Abs(xi) < P {
+		if v, ok := m.blockAlias(xi, P); ok {
+			return v
+		}
+	}
+	if !fixed {
+		return m.absAlias(xi, P)
+	}
 	var ph complex128
 	if fixed {
 		u := m.shift / h
@@ -413,6 +429,91 @@ func (m *planModel) exactAlias(xi, P, h float64) float64 {
 			return cur + rem
 		}
 	}
+}
+
+// absAlias is exactAlias in modulus, the sum Σ_{l≠0} |F(ξ + lP)| taken, as
+// in the certificate, up to the first count of copies on each side at which
+// the envelope's remainder meets the goal, or to the cap. The remainder
+// falls and the sum grows with the count, so that count is found by
+// doubling and bisection over prefix sums instead of a remainder per copy.
+func (m *planModel) absAlias(xi, P float64) float64 {
+	L := max(m.aliasCap, modelTerms)
+	rem := func(l int) float64 {
+		next := float64(l + 1)
+		return envRay(m.spectral, xi+next*P, 1, P) + envRay(m.spectral, xi-next*P, -1, P)
+	}
+	// pre[l-1] = Σ_{j=1}^{l} (|F(ξ + jP)| + |F(ξ - jP)|).
+	pre := m.prefix[:0]
+	done := func(l int) (float64, bool) {
+		r := rem(l)
+		return r, r <= m.remGoal || r <= 0x1p-60*pre[l-1] || r == 0
+	}
+	lo := 0 // a count that misses the goal (0: none tried)
+	for k := 1; ; k = min(2*k, L) {
+		for l := len(pre) + 1; l <= k; l++ {
+			v := m.absTr(xi+float64(l)*P) + m.absTr(xi-float64(l)*P)
+			if l > 1 {
+				v += pre[l-2]
+			}
+			pre = append(pre, v)
+		}
+		m.prefix = pre
+		if m.stopAbove > 0 && pre[k-1] > m.stopAbove {
+			return pre[k-1] // already above what the caller asks about
+		}
+		r, ok := done(k)
+		if ok {
+			// The first count that meets the goal lies in (lo, k].
+			hi, rHi := k, r
+			for hi-lo > 1 {
+				mid := lo + (hi-lo)/2
+				if r, ok := done(mid); ok {
+					hi, rHi = mid, r
+				} else {
+					lo = mid
+				}
+			}
+			return pre[hi-1] + rHi
+		}
+		if k >= L {
+			m.capped = math.Max(m.capped, r)
+			return pre[k-1] + r
+		}
+		lo = k
+	}
+}
+
+// blockAlias is exactAlias in modulus for copies that blockTr bounds as
+// negligible (a B-spline at the steps of its partition of unity): the
+// explicit loop would add copies of about nothing until the envelope's
+// remainder meets the goal, so the result is that remainder at the first
+// count where it does, found by bisection, or at the cap.
+func (m *planModel) blockAlias(xi, P float64) (float64, bool) {
+	L := max(m.aliasCap, modelTerms)
+	ax := math.Abs(xi)
+	B := m.blockTr(P+ax, P, L) + m.blockTr(P-ax, P, L)
+	if !(B <= 0x1p-60*m.remGoal) {
+		return 0, false
+	}
+	rem := func(l int) float64 {
+		next := float64(l + 1)
+		return envRay(m.spectral, xi+next*P, 1, P) + envRay(m.spectral, xi-next*P, -1, P)
+	}
+	done := func(r float64) bool { return r <= m.remGoal || r == 0 }
+	if r := rem(L); !done(r) {
+		m.capped = math.Max(m.capped, r)
+		return B + r, true
+	}
+	lo, hi := 0, L // rem(hi) meets the goal; lo = 0 or a count that misses it
+	for hi-lo > 1 {
+		mid := lo + (hi-lo)/2
+		if done(rem(mid)) {
+			hi = mid
+		} else {
+			lo = mid
+		}
+	}
+	return B + rem(hi), true
 }
 
 // rayAlias is exactAlias in modulus by rayTr: the copies ξ ± lP of an even

@@ -222,3 +222,23 @@ func lorentzRay(x, h, a float64) float64 {
 	em := -h/12*imag(d1) + h3/720*imag(d3) - h3*h*h/30240*imag(d5) + h3*h3*h/1209600*imag(d7)
 	return sum + math.Atan(a/x)/(a*h) + 0.5/(a2+x*x) + em/a
 }
+
+// pointBlock returns the float64 form of a family's aliasBlock, or nil.
+func pointBlock(f Family) func(x0, P float64, J int) float64 {
+	b, ok := f.(BSplineFamily)
+	if !ok || b.Order < 2 || b.Order > MaxBSplineOrder {
+		return nil
+	}
+	m := b.Order
+	return func(x0, P float64, J int) float64 {
+		if !(x0 > 0) || !(P > 0) || J <= 0 {
+			return math.Inf(1)
+		}
+		k := math.Round(P / (2 * math.Pi))
+		delta := math.Abs(P/2 - k*math.Pi)
+		a := math.Abs(math.Sin(x0 / 2))
+		jm := float64(J - 1)
+		rho := math.Max(a/(x0/2), (a+jm*delta)/((x0+jm*P)/2))
+		return float64(J) * intPowFloat(rho, m)
+	}
+}
