@@ -116,8 +116,10 @@ func half(x Interval) Interval {
 
 // Spatial is compact support on [-m/2, m/2] with height M_m(0) (the
 // maximum: M_m is symmetric and unimodal), rounded up.
-func (b BSplineFamily) Spatial() Envelope {
-	return Envelope{{Decay: Compact, Amplitude: bsplineValue(b.Order, Point(0)).Hi, Width: float64(b.Order) / 2}}
+func (b BSplineFamily) Spatial() Envelope { return b.appendSpatial(nil) }
+
+func (b BSplineFamily) appendSpatial(dst Envelope) Envelope {
+	return append(dst, EnvelopeTerm{Decay: Compact, Amplitude: bsplineValue(b.Order, Point(0)).Hi, Width: float64(b.Order) / 2})
 }
 
 // Spectral is the algebraic envelope
@@ -128,8 +130,10 @@ func (b BSplineFamily) Spatial() Envelope {
 // power m. It touches |F| at ξ = 0 and, asymptotically, at the peaks
 // |sin(ξ/2)| = 1. For m = 1 it is not summable (the box transform decays
 // like 1/ξ), so alias sums of the box use the spatial side.
-func (b BSplineFamily) Spectral() Envelope {
-	return Envelope{{Decay: Algebraic, Amplitude: 1, Plateau: 2, Width: 2, Power: float64(b.Order)}}
+func (b BSplineFamily) Spectral() Envelope { return b.appendSpectral(nil) }
+
+func (b BSplineFamily) appendSpectral(dst Envelope) Envelope {
+	return append(dst, EnvelopeTerm{Decay: Algebraic, Amplitude: 1, Plateau: 2, Width: 2, Power: float64(b.Order)})
 }
 
 // aliasBlock bounds J alias copies of the transform, Σ_{j=0}^{J-1} |F(x0 + jP)|
