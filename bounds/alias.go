@@ -290,7 +290,12 @@ func (s *aliasSummer) chooseSide(F Complex, P Interval) (Side, int64) {
 	spec := s.spec
 	first := spec.At(s.xi.Add(P)) + spec.At(s.xi.Sub(P))
 	goal := s.goal(math.Max(first, 0x1p-60*F.Mag()))
-	K := s.spatialTermsEstimate(F.Mag())
+	var K int64
+	if _, ok := s.f.(closedFormLattice); ok && s.g.Infinite() && !s.abs {
+		K = 4 // two geometric series in closed form
+	} else {
+		K = s.spatialTermsEstimate(F.Mag())
+	}
 	if s.g.Count > 0 && s.g.Count < K {
 		K = s.g.Count
 	}
@@ -372,6 +377,64 @@ func (s *aliasSummer) spectralTermsEstimate(P Interval, goal float64) int64 {
 	return hi
 }
 
+// aliasBlocker is implemented by families with an even |F| that can bound
+// a block of alias copies in closed form, far below the copies' envelope
+// where the copies sit at zeros of F (BSplineFamily at the steps of its
+// partition of unity).
+type aliasBlocker interface {
+	// aliasBlock returns an upper bound of Σ_{j=0}^{J-1} |F(x0 + jP)| for
+	// every x0 in the interval, given x0.Lo > 0 and P.Lo > 0, or +Inf.
+	aliasBlock(x0, P Interval, J int64) float64
+}
+
+// blockAlias is spectralAlias in abs mode for a family that bounds blocks
+// of copies (aliasBlocker). It takes the number of copies L on each side
+// as spectralAlias would, the least whose rigorous tail meets the goal, but
+// bounds the copies ±1 … ±L by two blocks instead of summing them; the
+// enclosure is [0, blocks] widened by the tail. ok is false when the
+// blocks are not far below the goal: then the copies must be summed.
+func (s *aliasSummer) blockAlias(bl aliasBlocker, P Interval, F Complex, limit int64) (Complex, Method, bool) {
+	if s.xi.Mag() >= P.Lo {
+		return Complex{}, Method{}, false
+	}
+	goal := s.goal(0x1p-60 * F.Mag())
+	enough := func(L int64) bool { return 2*s.spectralEstimate(P, L) <= goal }
+	// The least L ≥ 1 the estimate accepts, by doubling and bisection.
+	hi := int64(1)
+	for !enough(hi) {
+		if hi >= limit {
+			return Complex{}, Method{}, false
+		}
+		hi = min(2*hi, limit)
+	}
+	lo := hi / 2 // 0, or a count the estimate rejects
+	for hi-lo > 1 {
+		mid := lo + (hi-lo)/2
+		if enough(mid) {
+			hi = mid
+		} else {
+			lo = mid
+		}
+	}
+	L := hi
+	tail := s.spectralTail(P, L)
+	for tail > goal {
+		if L >= limit {
+			return Complex{}, Method{}, false
+		}
+		L = min(2*L, limit)
+		tail = s.spectralTail(P, L)
+	}
+	// Right copies ξ + lP and, |F| being even, left copies |F(lP - ξ)|.
+	B := addUp(bl.aliasBlock(s.xi.Add(P), P, L), bl.aliasBlock(P.Sub(s.xi), P, L))
+	if !(B <= goal/16) {
+		return Complex{}, Method{}, false
+	}
+	sum := RealC(Interval{0, B}).Inflate(tail)
+	rem := addUp(B, tail)
+	return sum, Method{Side: SpectralSide, AliasTerms: 2 * L, Remainder: rem, RemainderFrom: s.spec.Kinds()}, true
+}
+
 // spectralAlias sums the aliased copies l = ±1, …, ±L of F with the phase
 // e^{i2πls/h}, adding copies until the envelope bounds the rest below the
 // goal.
@@ -379,6 +442,11 @@ func (s *aliasSummer) spectralAlias(P Interval, F Complex, limit int64) (Complex
 	tail := 2 * s.firstCopies(P)
 	if math.IsInf(tail, 1) {
 		return Complex{}, Method{}, false, invalidf("family", "%v: spectral envelope is not summable; the spectral side cannot be used", s.f)
+	}
+	if bl, ok := s.f.(aliasBlocker); ok && s.abs {
+		if sum, m, ok := s.blockAlias(bl, P, F, limit); ok {
+			return sum, m, true, nil
+		}
 	}
 	// Phase e^{i2πs/h}: reduce s/h modulo 1 first so that large shifts keep
 	// an accurate phase.
@@ -391,16 +459,19 @@ func (s *aliasSummer) spectralAlias(P Interval, F Complex, limit int64) (Complex
 	// zero of F); before any copy is summed, to the estimate of the first.
 	first := tail / 2
 	floor := 0x1p-60 * F.Mag()
+	// At ξ = 0 the copies of an even transform come in equal pairs.
+	mirror := s.xi.Lo == 0 && s.xi.Hi == 0 && isEven(s.f)
 	var sum Complex
 	var sumAbs float64 // Σ |copies| ≥ |sum|, up to a factor √2
 	var L int64
 	rigorous := false // whether tail is the rigorous bound or an estimate
+	var goal float64
 	for {
 		scale := sumAbs
 		if scale == 0 {
 			scale = 0x1p-60 * first
 		}
-		goal := s.goal(math.Max(scale, floor))
+		goal = s.goal(math.Max(scale, floor))
 		if tail <= goal && (L > 0 || tail == 0 || tail <= s.set.Tol) {
 			if rigorous {
 				break
@@ -421,7 +492,10 @@ func (s *aliasSummer) spectralAlias(P Interval, F Complex, limit int64) (Complex
 		}
 		lp := P.Scale(float64(L))
 		right := s.f.Transform(s.xi.Add(lp))
-		left := s.f.Transform(s.xi.Sub(lp))
+		left := right
+		if !mirror {
+			left = s.f.Transform(s.xi.Sub(lp))
+		}
 		sumAbs += right.Re.Mag() + right.Im.Mag() + left.Re.Mag() + left.Im.Mag()
 		switch {
 		case s.abs:
@@ -434,11 +508,19 @@ func (s *aliasSummer) spectralAlias(P Interval, F Complex, limit int64) (Complex
 			v := u.Scale(float64(L))
 			v = v.AddFloat(-math.Round(v.Mid()))
 			ph := Cis(TwoPi.Mul(v))
-			sum = sum.Add(right.Mul(ph)).Add(left.Mul(ph.Conj()))
+			if mirror {
+				// F e^{iθ} + F e^{-iθ} = 2F cos θ.
+				sum = sum.Add(right.MulReal(ph.Re.Scale(2)))
+			} else {
+				sum = sum.Add(right.Mul(ph)).Add(left.Mul(ph.Conj()))
+			}
 		}
 		// Estimate first (cheap); twice the estimate must meet the goal
-		// before the rigorous tail is computed.
-		tail = 2 * s.spectralEstimate(P, L)
+		// before the rigorous tail is computed. An estimate already far
+		// below the goal stands for the next (the estimates fall with L).
+		if rigorous || tail > 0x1p-20*goal {
+			tail = 2 * s.spectralEstimate(P, L)
+		}
 		rigorous = false
 	}
 	sum = sum.Inflate(tail)
@@ -521,8 +603,22 @@ func (s *aliasSummer) spatialWindow(goal float64, rigorous bool) (lo, hi int64, 
 	}
 }
 
+// closedFormLattice is implemented by families whose sampled sum over an
+// infinite grid has a closed form (ExponentialFamily: two geometric
+// series).
+type closedFormLattice interface {
+	// latticeSum encloses h Σ_{k∈Z} f(s + hk) e^{-iξ(s+hk)} for every s in
+	// shift and ξ in xi, or returns ok = false where it cannot tightly.
+	latticeSum(h float64, shift, xi Interval) (T Complex, ok bool)
+}
+
 // spatialInfinite sums T over an infinite grid on the spatial side.
 func (s *aliasSummer) spatialInfinite(scale float64) (Complex, Method, error) {
+	if ls, ok := s.f.(closedFormLattice); ok && !s.abs {
+		if T, ok := ls.latticeSum(s.g.Step, s.shift, s.xi); ok {
+			return T, Method{Side: SpatialSide, RemainderFrom: "closed form"}, nil
+		}
+	}
 	lo, hi, ok := s.spatialWindow(s.goal(scale), true)
 	if !ok {
 		if math.IsInf(s.spatialRays(0, 0), 1) {

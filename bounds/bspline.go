@@ -116,8 +116,10 @@ func half(x Interval) Interval {
 
 // Spatial is compact support on [-m/2, m/2] with height M_m(0) (the
 // maximum: M_m is symmetric and unimodal), rounded up.
-func (b BSplineFamily) Spatial() Envelope {
-	return Envelope{{Decay: Compact, Amplitude: bsplineValue(b.Order, Point(0)).Hi, Width: float64(b.Order) / 2}}
+func (b BSplineFamily) Spatial() Envelope { return b.appendSpatial(nil) }
+
+func (b BSplineFamily) appendSpatial(dst Envelope) Envelope {
+	return append(dst, EnvelopeTerm{Decay: Compact, Amplitude: bsplineValue(b.Order, Point(0)).Hi, Width: float64(b.Order) / 2})
 }
 
 // Spectral is the algebraic envelope
@@ -128,6 +130,40 @@ func (b BSplineFamily) Spatial() Envelope {
 // power m. It touches |F| at ξ = 0 and, asymptotically, at the peaks
 // |sin(ξ/2)| = 1. For m = 1 it is not summable (the box transform decays
 // like 1/ξ), so alias sums of the box use the spatial side.
-func (b BSplineFamily) Spectral() Envelope {
-	return Envelope{{Decay: Algebraic, Amplitude: 1, Plateau: 2, Width: 2, Power: float64(b.Order)}}
+func (b BSplineFamily) Spectral() Envelope { return b.appendSpectral(nil) }
+
+func (b BSplineFamily) appendSpectral(dst Envelope) Envelope {
+	return append(dst, EnvelopeTerm{Decay: Algebraic, Amplitude: 1, Plateau: 2, Width: 2, Power: float64(b.Order)})
+}
+
+// aliasBlock bounds J alias copies of the transform, Σ_{j=0}^{J-1} |F(x0 + jP)|
+// for every x0 in the interval, by their nearness to the zeros of
+// sin(ξ/2). Write P/2 = kπ + δ with k the nearest integer; then
+//
+//	|sin((x0 + jP)/2)| = |sin(x0/2 + jδ)| ≤ |sin(x0/2)| + j|δ|,
+//	|F(x0 + jP)| ≤ ((|sin(x0/2)| + j|δ|) / ((x0 + jP)/2))^m,
+//
+// and the ratio, a quotient of two affine functions of j, is largest at
+// j = 0 or j = J-1; so the block is at most J times the m-th power of the
+// larger of the two. At the steps h = 1/k and ξ = 0 (the partition of
+// unity, where every copy vanishes) both ratios are of the order of the
+// rounding of P, and the bound is negligible however many copies it
+// covers; elsewhere it is large, and the copies are summed instead
+// (aliasSummer.blockAlias).
+func (b BSplineFamily) aliasBlock(x0, P Interval, J int64) float64 {
+	m := b.Order
+	if J <= 0 {
+		return 0
+	}
+	if m < 2 || m > MaxBSplineOrder || !(x0.Lo > 0) || !(P.Lo > 0) || !x0.IsFinite() || !P.IsFinite() {
+		return math.Inf(1)
+	}
+	hx, hp := half(x0), half(P)
+	k := math.Round(hp.Mid() / math.Pi)
+	delta := hp.Sub(Pi.Scale(k)).Mag() // ≥ |P/2 - kπ|
+	a := Sin(hx).Mag()                 // ≥ |sin(x0/2)|
+	jm := float64(J - 1)
+	g0 := divUp(a, hx.Lo)
+	g1 := divUp(addUp(a, mulUp(jm, delta)), hx.Add(hp.Scale(jm)).Lo)
+	return mulUp(float64(J), Point(math.Max(g0, g1)).IntPow(m).Hi)
 }

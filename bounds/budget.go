@@ -511,12 +511,15 @@ func (fb *familyBudgeter) absTruncation() (float64, error) {
 	pieces := 1
 	best := 0.0
 	if r > 0 && r > fb.opt.Tol {
-		// A lower bound of the explicit sum, at the middle shift, sets
-		// the goal.
-		est := 0.0
 		// Leave room in the work limit for the pieces, as omittedSum
 		// leaves it for the grid.
 		cap := min(int64(truncationCap), (fb.opt.maxTerms()-1)/(2*(truncPieces+1)))
+		if c, d, ok := convexTails(fb.f); ok && inConvexTails(c, d, x1, x0) {
+			return fb.convexTruncation(whole, rem, cap)
+		}
+		// A lower bound of the explicit sum, at the middle shift, sets
+		// the goal.
+		est := 0.0
 		for {
 			next := max(1, 2*m)
 			if next > cap {
@@ -553,6 +556,53 @@ func (fb *familyBudgeter) absTruncation() (float64, error) {
 	}
 	fb.trunc = addUp(best, r)
 	fb.truncPieces = pieces
+	fb.truncDone = true
+	return fb.trunc, nil
+}
+
+// convexTruncation is absTruncation for omitted samples that lie, for
+// every shift, where |f| is convex (convexTails): the explicit part of the
+// sum is convex in the shift, so its sup over the shift range is the
+// larger of its values at the two ends, each enclosed at a point. The
+// samples beyond the m explicit pairs are bounded as in absTruncation,
+// once for the whole range, and m doubles until that remainder meets the
+// goal, set by the explicit sums at the ends (lower bounds of the sup).
+func (fb *familyBudgeter) convexTruncation(whole *aliasSummer, rem func(int64) float64, cap int64) (float64, error) {
+	lo, hi := fb.g.Indices()
+	ends := [2]aliasSummer{*whole, *whole}
+	ends[0].shift = Point(fb.shifts.Lo)
+	ends[1].shift = Point(fb.shifts.Hi)
+	n := 2
+	if fb.shifts.Lo == fb.shifts.Hi {
+		n = 1
+	}
+	var sums [2]Interval
+	var m int64
+	r := math.Inf(1)
+	for {
+		next := max(1, 2*m)
+		if next > cap {
+			break // the remainder stays as it is: still rigorous
+		}
+		if err := whole.spend(int64(2*n)*(next-m), "truncation sum"); err != nil {
+			return 0, err
+		}
+		for e := 0; e < n; e++ {
+			for k := m + 1; k <= next; k++ {
+				sums[e] = sums[e].Add(ends[e].absTerm(hi + k)).Add(ends[e].absTerm(lo - k))
+			}
+		}
+		m = next
+		r = rem(m)
+		if r <= whole.goal(math.Max(sums[0].Lo, sums[n-1].Lo)) {
+			break
+		}
+	}
+	if math.IsInf(r, 1) {
+		r = rem(m)
+	}
+	fb.trunc = addUp(math.Max(sums[0].Hi, sums[n-1].Hi), r)
+	fb.truncPieces = 1
 	fb.truncDone = true
 	return fb.trunc, nil
 }

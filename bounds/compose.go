@@ -35,9 +35,17 @@ type composite interface {
 	appendSpectral(dst Envelope) Envelope
 }
 
+// envelopeAppender is implemented by the catalogue and composition
+// families: they append their envelopes to a slice, so that callers with
+// room for them allocate nothing.
+type envelopeAppender interface {
+	appendSpatial(dst Envelope) Envelope
+	appendSpectral(dst Envelope) Envelope
+}
+
 // appendSpatial appends the spatial envelope of f to dst.
 func appendSpatial(dst Envelope, f Family) Envelope {
-	if c, ok := f.(composite); ok {
+	if c, ok := f.(envelopeAppender); ok {
 		return c.appendSpatial(dst)
 	}
 	return append(dst, f.Spatial()...)
@@ -45,7 +53,7 @@ func appendSpatial(dst Envelope, f Family) Envelope {
 
 // appendSpectral appends the spectral envelope of f to dst.
 func appendSpectral(dst Envelope, f Family) Envelope {
-	if c, ok := f.(composite); ok {
+	if c, ok := f.(envelopeAppender); ok {
 		return c.appendSpectral(dst)
 	}
 	return append(dst, f.Spectral()...)

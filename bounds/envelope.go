@@ -274,9 +274,9 @@ func (e Envelope) At(x Interval) float64 {
 //	Compact      ⌊(R - x0)/h⌋ + 1 points if x0 ≤ R, else 0
 //
 // The Gaussian bound takes the ratio of consecutive terms, which decreases
-// along the ray, and the integral comparison for a decreasing g; the
-// algebraic one is the integral comparison. Both are in math.md
-// ("Envelopes and their bounds").
+// along the ray (for ρ ≤ e^{-40} simply 1 - ρ ≥ 1 - 2⁻⁵³), and the
+// integral comparison for a decreasing g; the algebraic one is the
+// integral comparison. Both are in math.md ("Envelopes and their bounds").
 func (t EnvelopeTerm) rayFrom(x0, h float64) float64 {
 	A := t.Amplitude
 	if A == 0 {
@@ -292,6 +292,12 @@ func (t EnvelopeTerm) rayFrom(x0, h float64) float64 {
 	case Gaussian:
 		s := Point(t.Width)
 		g0 := Exp(X.Div(s).Sqr().Scale(-0.5))
+		// ρ ≤ e^{-40} < 2⁻⁵³: 1 - ρ ≥ 1 - 2⁻⁵³, a float64. The float64
+		// exponent is within a few ulps of the exact one, so 41 leaves
+		// room for its rounding.
+		if e := (2*x0*h + h*h) / (2 * t.Width * t.Width); e >= 41 {
+			return mulUp(A, divUp(g0.Hi, 1-0x1p-53))
+		}
 		// 1 - ρ = -expm1(-(2x0h+h²)/(2σ²))
 		expo := X.Scale(2).Mul(H).Add(H.Sqr()).Div(s.Sqr().Scale(2))
 		oneMinusRho := Expm1(expo.Neg()).Neg()

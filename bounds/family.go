@@ -91,3 +91,30 @@ type RadialEnvelope struct {
 	Center  []float64
 	Profile Envelope
 }
+
+// isEven reports whether f is known to be even, f(-x) = f(x), so that its
+// transform is even too: the catalogue functions centred at 0, and the
+// amplitudes, dilations and sums of even functions. False means unknown.
+func isEven(f Family) bool {
+	switch g := f.(type) {
+	case GaussianFamily, ExponentialFamily, LorentzianFamily, SechFamily, SechSquaredFamily,
+		FejerFamily, WavePacketFamily, BSplineFamily, KaiserBesselFamily:
+		return true
+	case AmplitudeFamily:
+		return isEven(g.Of)
+	case DilationFamily:
+		return isEven(g.Of)
+	case ShiftFamily:
+		return g.By == 0 && isEven(g.Of)
+	case ModulationFamily:
+		return g.Omega0 == 0 && isEven(g.Of)
+	case SumFamily:
+		for _, t := range g.Terms {
+			if !isEven(t) {
+				return false
+			}
+		}
+		return len(g.Terms) > 0
+	}
+	return false
+}

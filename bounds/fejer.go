@@ -53,14 +53,18 @@ func (f FejerFamily) Transform(xi Interval) Complex {
 // touches f at 0 and near the crests of the side lobes, |u| ≈ (k+½)π.
 // (The plateau-free 4(1+|u|)^{-2} ≥ min(1, u⁻²) is 4 times f at 0 and at
 // the far crests.)
-func (f FejerFamily) Spatial() Envelope {
+func (f FejerFamily) Spatial() Envelope { return f.appendSpatial(nil) }
+
+func (f FejerFamily) appendSpatial(dst Envelope) Envelope {
 	w := divUp(2, f.Omega)
-	return Envelope{{Decay: Algebraic, Amplitude: 1, Plateau: w, Width: w, Power: 2}}
+	return append(dst, EnvelopeTerm{Decay: Algebraic, Amplitude: 1, Plateau: w, Width: w, Power: 2})
 }
 
 // Spectral is the band limit: F ≤ 2π/Ω (rounded up) on |ξ| ≤ Ω, 0 beyond.
-func (f FejerFamily) Spectral() Envelope {
-	return Envelope{{Decay: Compact, Amplitude: divUp(TwoPi.Hi, f.Omega), Width: f.Omega}}
+func (f FejerFamily) Spectral() Envelope { return f.appendSpectral(nil) }
+
+func (f FejerFamily) appendSpectral(dst Envelope) Envelope {
+	return append(dst, EnvelopeTerm{Decay: Compact, Amplitude: divUp(TwoPi.Hi, f.Omega), Width: f.Omega})
 }
 
 // Constants for fejerSinc. sinc decreases on [0, u₁], u₁ = 4.4934… the

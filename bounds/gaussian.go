@@ -40,11 +40,15 @@ func (g GaussianFamily) Transform(xi Interval) Complex {
 }
 
 // Spatial is the function itself: one Gaussian term of width σ.
-func (g GaussianFamily) Spatial() Envelope {
-	return Envelope{{Decay: Gaussian, Amplitude: 1, Width: g.Sigma}}
+func (g GaussianFamily) Spatial() Envelope { return g.appendSpatial(nil) }
+
+func (g GaussianFamily) appendSpatial(dst Envelope) Envelope {
+	return append(dst, EnvelopeTerm{Decay: Gaussian, Amplitude: 1, Width: g.Sigma})
 }
 
 // Spectral is the transform itself: amplitude σ√(2π), width 1/σ.
-func (g GaussianFamily) Spectral() Envelope {
-	return Envelope{{Decay: Gaussian, Amplitude: SqrtTwoPi.Scale(g.Sigma).Hi, Width: divUp(1, g.Sigma)}}
+func (g GaussianFamily) Spectral() Envelope { return g.appendSpectral(nil) }
+
+func (g GaussianFamily) appendSpectral(dst Envelope) Envelope {
+	return append(dst, EnvelopeTerm{Decay: Gaussian, Amplitude: SqrtTwoPi.Scale(g.Sigma).Hi, Width: divUp(1, g.Sigma)})
 }

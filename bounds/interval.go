@@ -255,6 +255,11 @@ func (x Interval) IntPow(n int) Interval {
 			return x.IntPow(n / 2).Sqr()
 		}
 		return x.IntPow(-n).Recip()
+	case x.Lo == x.Hi:
+		if n%2 == 0 {
+			return powPoint(math.Abs(x.Lo), n)
+		}
+		return powPoint(x.Lo, n)
 	case n%2 == 0:
 		a := x.Abs()
 		return Interval{powPoint(a.Lo, n).Lo, powPoint(a.Hi, n).Hi}

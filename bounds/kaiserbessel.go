@@ -111,8 +111,10 @@ func (k KaiserBesselFamily) Transform(xi Interval) Complex {
 
 // Spatial is compact support on [-W/2, W/2] with height I0(β), the
 // maximum (at x = 0; I0 is increasing on [0, ∞)), rounded up.
-func (k KaiserBesselFamily) Spatial() Envelope {
-	return Envelope{{Decay: Compact, Amplitude: BesselI0(Point(k.Beta)).Hi, Width: divUp(k.Width, 2)}}
+func (k KaiserBesselFamily) Spatial() Envelope { return k.appendSpatial(nil) }
+
+func (k KaiserBesselFamily) appendSpatial(dst Envelope) Envelope {
+	return append(dst, EnvelopeTerm{Decay: Compact, Amplitude: BesselI0(Point(k.Beta)).Hi, Width: divUp(k.Width, 2)})
 }
 
 // Spectral is a two-term envelope, in u = W|ξ|/2:
@@ -128,14 +130,14 @@ func (k KaiserBesselFamily) Spatial() Envelope {
 // width ℓ = 2/W (it is ≥ W ≥ |F| on the plateau). The power 1 is the true
 // decay (f jumps at ±W/2), so the spectral side of the Poisson formula is
 // not summable and alias sums use the spatial side.
-func (k KaiserBesselFamily) Spectral() Envelope {
+func (k KaiserBesselFamily) Spectral() Envelope { return k.appendSpectral(nil) }
+
+func (k KaiserBesselFamily) appendSpectral(dst Envelope) Envelope {
 	W := Point(k.Width)
 	peak := SinhcSqrt(Point(k.Beta).Sqr()).Mul(W).Hi
 	band := Point(k.Beta).Scale(2).Div(W).Hi
 	plateau := Point(k.Beta).AddFloat(1).Scale(2).Div(W).Hi
 	width := Point(2).Div(W).Lo
-	return Envelope{
-		{Decay: Compact, Amplitude: peak, Width: band},
-		{Decay: Algebraic, Amplitude: W.Hi, Plateau: plateau, Width: width, Power: 1},
-	}
+	return append(dst, EnvelopeTerm{Decay: Compact, Amplitude: peak, Width: band},
+		EnvelopeTerm{Decay: Algebraic, Amplitude: W.Hi, Plateau: plateau, Width: width, Power: 1})
 }

@@ -56,13 +56,17 @@ func (l LorentzianFamily) Transform(xi Interval) Complex {
 // is 1 at 0 and at infinity and at most 2 (at |x| = a). (The plateau-free
 // (2/a²)(1 + |x|/a)^{-2}, from (a+|x|)² ≤ 2(a²+x²), is 2 at both ends, and
 // the far tail decides how many samples the engine sums.)
-func (l LorentzianFamily) Spatial() Envelope {
+func (l LorentzianFamily) Spatial() Envelope { return l.appendSpatial(nil) }
+
+func (l LorentzianFamily) appendSpatial(dst Envelope) Envelope {
 	a := l.Width
-	return Envelope{{Decay: Algebraic, Amplitude: Point(a).Sqr().Recip().Hi, Plateau: a, Width: a, Power: 2}}
+	return append(dst, EnvelopeTerm{Decay: Algebraic, Amplitude: Point(a).Sqr().Recip().Hi, Plateau: a, Width: a, Power: 2})
 }
 
 // Spectral is F itself: an exponential term of amplitude π/a (rounded up)
 // and rate a.
-func (l LorentzianFamily) Spectral() Envelope {
-	return Envelope{{Decay: Exponential, Amplitude: divUp(Pi.Hi, l.Width), Rate: l.Width}}
+func (l LorentzianFamily) Spectral() Envelope { return l.appendSpectral(nil) }
+
+func (l LorentzianFamily) appendSpectral(dst Envelope) Envelope {
+	return append(dst, EnvelopeTerm{Decay: Exponential, Amplitude: divUp(Pi.Hi, l.Width), Rate: l.Width})
 }

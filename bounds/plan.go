@@ -215,6 +215,73 @@ type planner1 struct {
 	hint float64
 	// evals counts model evaluations.
 	evals int
+	// memo holds the model totals computed by minTotal: searches for
+	// neighbouring counts and the second search after a certificate
+	// that fell short revisit the same steps.
+	memo []modelValue
+}
+
+// modelValue is a model total, its weighted aliasing and truncation, and
+// what they depend on besides the planModel's fixed fields.
+type modelValue struct {
+	h, remGoal, wA, wT float64
+	n                  int64
+	v, a, t            float64
+}
+
+// memoSize bounds the model totals a planner keeps.
+const memoSize = 256
+
+// cachedTotal returns p.m.total(h, n), from the memo when it was computed
+// before under the same remainder goal and weights.
+func (p *planner1) cachedTotal(h float64, n int64) float64 {
+	return p.modelParts(h, n).v
+}
+
+// modelParts returns the memo entry of the model at (h, n), computing it
+// if needed.
+func (p *planner1) modelParts(h float64, n int64) *modelValue {
+	m := &p.m
+	for i := len(p.memo) - 1; i >= 0; i-- {
+		e := &p.memo[i]
+		if e.h == h && e.n == n && e.remGoal == m.remGoal && e.wA == m.wA && e.wT == m.wT {
+			return e
+		}
+	}
+	p.evals++
+	a := m.weightedAlias(h)
+	t := m.trunc(h, n) * weight(m.wT)
+	v := a + t
+	if !m.noRound {
+		v += m.rounding(h, n)
+	}
+	if len(p.memo) >= memoSize {
+		p.memo = p.memo[:copy(p.memo, p.memo[memoSize/2:])]
+	}
+	p.memo = append(p.memo, modelValue{h: h, remGoal: m.remGoal, wA: m.wA, wT: m.wT, n: n, v: v, a: a, t: t})
+	return &p.memo[len(p.memo)-1]
+}
+
+// cannotReach reports whether the modelled total of n samples stays above
+// enough for every step in [lo, hi], given steps lo ≤ x ≤ hi already
+// evaluated (lo = 0 for no lower limit): the aliasing grows with the step
+// and the truncation falls with it (the window widens), so the total is at
+// least the aliasing at lo plus the truncation at x on [lo, x], and the
+// aliasing at x plus the truncation at hi on [x, hi]. The aliasing grows
+// with the step only in modulus (any shift, or a band) and for transforms
+// that decrease away from their centre beyond the nearest copy (steady);
+// the comparison keeps a margin of 1/16 for tails that are not monotone.
+func (p *planner1) cannotReach(n int64, lo, x, hi, enough float64) bool {
+	if enough <= 0 || !p.m.steady || 2*math.Pi/hi <= p.m.xiMag+p.m.steadyAbove {
+		return false
+	}
+	a := 0.0 // the aliasing vanishes as the step does
+	if lo > 0 {
+		a = p.modelParts(lo, n).a
+	}
+	mid := p.modelParts(x, n)
+	t := p.modelParts(hi, n).t
+	return math.Min(a+mid.t, mid.a+t) > enough*(1+1.0/16)
 }
 
 // finalMargin is the share of the tolerance the model must meet at the
@@ -242,11 +309,26 @@ func newPlanner1(ctx context.Context, req PlanRequest) *planner1 {
 	}
 	if req.Family != nil {
 		m.val, m.absTr, m.tr = pointEvaluators(req.Family)
+		m.rayVal, m.rayTr = pointRays(req.Family)
+		m.blockTr = pointBlock(req.Family)
+		m.convexC, m.convexD, m.convex = convexTails(req.Family)
 		switch req.Family.(type) {
 		case GaussianFamily, ExponentialFamily, LorentzianFamily, SechFamily, SechSquaredFamily, BSplineFamily:
 			// Even about 0, where their envelopes are centred, and
 			// decreasing in |x|.
 			m.monotone, m.even = true, m.center == 0
+		}
+	}
+	// Aliasing in modulus that grows with the step: copies of a transform
+	// that decreases away from its centre (a wave packet's two bumps once
+	// the copies start beyond them: see cannotReach), or of an envelope.
+	if m.anyShift || req.Band.HalfWidth > 0 {
+		switch f := req.Family.(type) {
+		case nil, GaussianFamily, ExponentialFamily, LorentzianFamily, SechFamily, SechSquaredFamily, FejerFamily:
+			m.steady = true
+		case WavePacketFamily:
+			m.steadyAbove = math.Abs(f.Omega0)
+			m.steady = true
 		}
 	}
 	b := req.Band
@@ -357,10 +439,7 @@ func (p *planner1) minTotal(n int64, enough float64) (float64, float64) {
 	if hLo > hHi {
 		return hLo, math.Inf(1)
 	}
-	f := func(h float64) float64 {
-		p.evals++
-		return p.m.total(h, n)
-	}
+	f := func(h float64) float64 { return p.cachedTotal(h, n) }
 	const ratio = 1.02
 	if hHi <= hLo*ratio {
 		// A sliver of admissible steps: its ends decide.
@@ -379,6 +458,15 @@ func (p *planner1) minTotal(n int64, enough float64) (float64, float64) {
 	f0 := f(h0)
 	if f0 <= enough {
 		return h0, f0
+	}
+	if enough > 0 && p.m.steady {
+		// The truncation at the largest step bounds the total below.
+		if fh := f(hHi); fh <= enough || p.cannotReach(n, hLo, hHi, hHi, enough) {
+			if fh <= enough {
+				return hHi, fh
+			}
+			return hHi, math.Min(fh, f0)
+		}
 	}
 	// Bracket a minimum on log h by walking downhill with growing steps.
 	a, fa := h0, f0
@@ -408,11 +496,11 @@ func (p *planner1) minTotal(n int64, enough float64) (float64, float64) {
 		if c == b {
 			// b is an end of the admissible steps and f falls towards
 			// it: the minimum lies between a and b.
-			return p.towardEnd(f, a, b, fb, enough)
+			return p.towardEnd(f, n, a, b, fb, enough)
 		}
 		fc := f(c)
 		if fc >= fb {
-			return p.brent(f, a, b, c, fb, enough)
+			return p.brent(f, n, a, b, c, fb, enough)
 		}
 		a, fa = b, fb
 		b, fb = c, fc
@@ -425,7 +513,7 @@ func (p *planner1) minTotal(n int64, enough float64) (float64, float64) {
 // of the admissible steps with f(b) ≤ f(a): it halves the gap (in log h)
 // until a point below f(b) brackets an inner minimum, or the gap closes
 // on the end.
-func (p *planner1) towardEnd(f func(float64) float64, a, b, fb, enough float64) (float64, float64) {
+func (p *planner1) towardEnd(f func(float64) float64, n int64, a, b, fb, enough float64) (float64, float64) {
 	for i := 0; i < 60 && math.Abs(math.Log(b/a)) > 1e-7; i++ {
 		m := math.Sqrt(a * b)
 		fm := f(m)
@@ -433,7 +521,7 @@ func (p *planner1) towardEnd(f func(float64) float64, a, b, fb, enough float64) 
 			return m, fm
 		}
 		if fm < fb {
-			return p.brent(f, a, m, b, fm, enough)
+			return p.brent(f, n, a, m, b, fm, enough)
 		}
 		// A feasibility question is settled when the values keep rising
 		// away from an end that already misses the target.
@@ -449,16 +537,18 @@ func (p *planner1) towardEnd(f func(float64) float64, a, b, fb, enough float64) 
 // coordinates by golden-section steps with parabolic interpolation (Brent,
 // Algorithms for Minimization without Derivatives, 1973, Ch. 5, from
 // memory), to a relative step tolerance of 1e-6.
-func (p *planner1) brent(f func(float64) float64, a, b, c, fb float64, enough float64) (float64, float64) {
+func (p *planner1) brent(f func(float64) float64, n int64, a, b, c, fb float64, enough float64) (float64, float64) {
 	const cgold = 0.3819660112501051
-	lo, hi := math.Log(math.Min(a, c)), math.Log(math.Max(a, c))
+	// The steps of the bracket's ends and of x, as evaluated.
+	loH, hiH, xh := math.Min(a, c), math.Max(a, c), b
+	lo, hi := math.Log(loH), math.Log(hiH)
 	x := math.Log(b)
 	w, v := x, x
 	fx := fb
 	fw, fv := fx, fx
 	var d, e float64
 	for it := 0; it < 60; it++ {
-		if fx <= enough {
+		if fx <= enough || p.cannotReach(n, loH, xh, hiH, enough) {
 			break
 		}
 		// A feasibility question (enough > 0) is settled once the
@@ -504,21 +594,22 @@ func (p *planner1) brent(f func(float64) float64, a, b, c, fb float64, enough fl
 		if math.Abs(d) < tol1 {
 			u = x + math.Copysign(tol1, d)
 		}
-		fu := f(math.Exp(u))
+		uh := math.Exp(u)
+		fu := f(uh)
 		if fu <= fx {
 			if u >= x {
-				lo = x
+				lo, loH = x, xh
 			} else {
-				hi = x
+				hi, hiH = x, xh
 			}
 			v, fv = w, fw
 			w, fw = x, fx
-			x, fx = u, fu
+			x, fx, xh = u, fu, uh
 		} else {
 			if u < x {
-				lo = u
+				lo, loH = u, uh
 			} else {
-				hi = u
+				hi, hiH = u, uh
 			}
 			if fu <= fw || w == x {
 				v, fv = w, fw
@@ -689,7 +780,9 @@ func (p *planner1) compactCandidates(best int64) (int64, float64) {
 				continue
 			}
 			p.m.capped = 0
+			p.m.stopAbove = (p.tol - rest) / weight(p.m.wA)
 			a := p.m.weightedAlias(hh)
+			p.m.stopAbove = 0
 			if a+rest <= p.tol {
 				return n, hh
 			}

@@ -17,24 +17,43 @@ import (
 // for envelopes it sums the envelopes. Remainders of the infinite sums use
 // the closed forms of EnvelopeTerm.rayFrom in float64.
 type planModel struct {
-	val      func(x float64) float64     // |f|, nil for envelope plans
-	absTr    func(xi float64) float64    // |F|, nil for envelope plans
-	tr       func(xi float64) complex128 // F, nil for envelope plans
-	spatial  Envelope
-	spectral Envelope
-	center   float64   // the point windows are centred on
-	xis      []float64 // frequencies at which the band's aliasing is sampled
-	xiMag    float64   // max |ξ| over the band
-	wide     bool      // a band of positive width
-	anyShift bool
-	shift    float64 // the fixed shift (anyShift false)
-	ulps     float64 // sample error in units of u
-	remGoal  float64 // remainders below this are not refined (the verification's Settings.Tol)
-	capped   float64 // largest remainder accepted only because a term limit was hit
-	aliasCap int     // term cap of the alias sums (modelTerms when 0)
-	monotone bool    // |f| is known to decrease away from the centre
-	even     bool    // f is known to be even about the centre
-	sH, sVal float64 // the last step and its window-sum bound S
+	val   func(x float64) float64     // |f|, nil for envelope plans
+	absTr func(xi float64) float64    // |F|, nil for envelope plans
+	tr    func(xi float64) complex128 // F, nil for envelope plans
+	// rayVal and rayTr sum |f| and |F| along rays in closed form
+	// (pointRays), for some even families centred at 0; nil otherwise.
+	rayVal, rayTr func(x, h float64) float64
+	// blockTr bounds J copies of |F| along the ray x0 + jP in float64
+	// (aliasBlocker), for the families that have it; nil otherwise.
+	blockTr func(x0, P float64, J int) float64
+	// prefix is scratch space for absAlias.
+	prefix []float64
+	// stopAbove, when > 0, lets absAlias return any value above it as soon
+	// as its partial sum exceeds it (a caller that only compares).
+	stopAbove float64
+	// |f| is convex on x ≤ convexC - convexD and x ≥ convexC + convexD
+	// when convex is set (convexTails).
+	convex           bool
+	convexC, convexD float64
+	spatial          Envelope
+	spectral         Envelope
+	center           float64   // the point windows are centred on
+	xis              []float64 // frequencies at which the band's aliasing is sampled
+	xiMag            float64   // max |ξ| over the band
+	wide             bool      // a band of positive width
+	anyShift         bool
+	shift            float64 // the fixed shift (anyShift false)
+	ulps             float64 // sample error in units of u
+	remGoal          float64 // remainders below this are not refined (the verification's Settings.Tol)
+	capped           float64 // largest remainder accepted only because a term limit was hit
+	aliasCap         int     // term cap of the alias sums (modelTerms when 0)
+	monotone         bool    // |f| is known to decrease away from the centre
+	// steady says that the aliasing model grows with the step while the
+	// copies stay beyond |ξ| + steadyAbove (planner1.cannotReach).
+	steady      bool
+	steadyAbove float64
+	even        bool    // f is known to be even about the centre
+	sH, sVal    float64 // the last step and its window-sum bound S
 	// Weights of the aliasing and the truncation in the total, and whether
 	// the rounding is left out (an axis of an n-D plan: PlanGridND weighs
 	// each axis's errors by the other axes' sizes and adds the rounding of
@@ -367,6 +386,17 @@ func (m *planModel) alias(h float64) float64 {
 
 func (m *planModel) exactAlias(xi, P, h float64) float64 {
 	fixed := !m.anyShift && !m.wide
+	if !fixed && m.rayTr != nil && math.Abs(xi) <= P {
+		return m.rayAlias(xi, P)
+	}
+	if !fixed && m.blockTr != nil && math.Abs(xi) < P {
+		if v, ok := m.blockAlias(xi, P); ok {
+			return v
+		}
+	}
+	if !fixed {
+		return m.absAlias(xi, P)
+	}
 	var ph complex128
 	if fixed {
 		u := m.shift / h
@@ -401,6 +431,121 @@ func (m *planModel) exactAlias(xi, P, h float64) float64 {
 	}
 }
 
+// absAlias is exactAlias in modulus, the sum Σ_{l≠0} |F(ξ + lP)| taken, as
+// in the certificate, up to the first count of copies on each side at which
+// the envelope's remainder meets the goal, or to the cap. The remainder
+// falls and the sum grows with the count, so that count is found by
+// doubling and bisection over prefix sums instead of a remainder per copy.
+func (m *planModel) absAlias(xi, P float64) float64 {
+	L := max(m.aliasCap, modelTerms)
+	rem := func(l int) float64 {
+		next := float64(l + 1)
+		return envRay(m.spectral, xi+next*P, 1, P) + envRay(m.spectral, xi-next*P, -1, P)
+	}
+	// pre[l-1] = Σ_{j=1}^{l} (|F(ξ + jP)| + |F(ξ - jP)|).
+	pre := m.prefix[:0]
+	done := func(l int) (float64, bool) {
+		r := rem(l)
+		return r, r <= m.remGoal || r <= 0x1p-60*pre[l-1] || r == 0
+	}
+	lo := 0 // a count that misses the goal (0: none tried)
+	for k := 1; ; k = min(2*k, L) {
+		for l := len(pre) + 1; l <= k; l++ {
+			v := m.absTr(xi+float64(l)*P) + m.absTr(xi-float64(l)*P)
+			if l > 1 {
+				v += pre[l-2]
+			}
+			pre = append(pre, v)
+		}
+		m.prefix = pre
+		if m.stopAbove > 0 && pre[k-1] > m.stopAbove {
+			return pre[k-1] // already above what the caller asks about
+		}
+		r, ok := done(k)
+		if ok {
+			// The first count that meets the goal lies in (lo, k].
+			hi, rHi := k, r
+			for hi-lo > 1 {
+				mid := lo + (hi-lo)/2
+				if r, ok := done(mid); ok {
+					hi, rHi = mid, r
+				} else {
+					lo = mid
+				}
+			}
+			return pre[hi-1] + rHi
+		}
+		if k >= L {
+			m.capped = math.Max(m.capped, r)
+			return pre[k-1] + r
+		}
+		lo = k
+	}
+}
+
+// blockAlias is exactAlias in modulus for copies that blockTr bounds as
+// negligible (a B-spline at the steps of its partition of unity): the
+// explicit loop would add copies of about nothing until the envelope's
+// remainder meets the goal, so the result is that remainder at the first
+// count where it does, found by bisection, or at the cap.
+func (m *planModel) blockAlias(xi, P float64) (float64, bool) {
+	L := max(m.aliasCap, modelTerms)
+	ax := math.Abs(xi)
+	B := m.blockTr(P+ax, P, L) + m.blockTr(P-ax, P, L)
+	if !(B <= 0x1p-60*m.remGoal) {
+		return 0, false
+	}
+	rem := func(l int) float64 {
+		next := float64(l + 1)
+		return envRay(m.spectral, xi+next*P, 1, P) + envRay(m.spectral, xi-next*P, -1, P)
+	}
+	done := func(r float64) bool { return r <= m.remGoal || r == 0 }
+	if r := rem(L); !done(r) {
+		m.capped = math.Max(m.capped, r)
+		return B + r, true
+	}
+	lo, hi := 0, L // rem(hi) meets the goal; lo = 0 or a count that misses it
+	for hi-lo > 1 {
+		mid := lo + (hi-lo)/2
+		if done(rem(mid)) {
+			hi = mid
+		} else {
+			lo = mid
+		}
+	}
+	return B + rem(hi), true
+}
+
+// rayAlias is exactAlias in modulus by rayTr: the copies ξ ± lP of an even
+// transform form the rays from P + |ξ| and P - |ξ|. As exactAlias, it
+// takes the envelope's remainder after max(aliasCap, modelTerms) copies on
+// each side when that remainder misses the goal (capped).
+func (m *planModel) rayAlias(xi, P float64) float64 {
+	ax := math.Abs(xi)
+	var cur float64
+	if ax == 0 {
+		cur = 2 * m.rayTr(P, P)
+	} else {
+		cur = m.rayTr(P+ax, P) + m.rayTr(P-ax, P)
+	}
+	L := float64(max(m.aliasCap, modelTerms))
+	if envFast(m.spectral, P-ax, P, int(L)) {
+		return cur
+	}
+	d := L * P
+	tail := m.rayTr(P+ax+d, P) + m.rayTr(P-ax+d, P)
+	if tail <= m.remGoal/16 || tail <= 0x1p-64*cur {
+		return cur
+	}
+	next := d + P
+	rem := envRay(m.spectral, xi+next, 1, P) + envRay(m.spectral, xi-next, -1, P)
+	if rem <= m.remGoal || rem <= 0x1p-60*(cur-tail) || rem == 0 {
+		return cur
+	}
+	m.capped = math.Max(m.capped, rem)
+	return cur - tail + rem
+}
+
 // trunc returns the model of the truncation bound for N samples of step h:
 // the sup over the sampled shifts of h·Σ_{k omitted} |f(x_k)|.
 func (m *planModel) trunc(h float64, n int64) float64 {
@@ -409,23 +554,38 @@ func (m *planModel) trunc(h float64, n int64) float64 {
 		if n%2 == 0 {
 			t += h / 2
 		}
-		return m.truncAt(h, n, t)
+		return m.truncAt(h, n, t, false)
+	}
+	// The omitted samples nearest the window over every shift.
+	M := float64(n+1) / 2
+	xr := m.center - h/2 + M*h
+	xl := m.center + h/2 - M*h
+	capFree := m.raysCapFree(h, xr, xl)
+	if m.convex && xr-m.convexC >= m.convexD && m.convexC-xl >= m.convexD {
+		// Convex tails: the sup over shifts is at an end of the range
+		// (absTruncation); for an even function the two ends mirror each
+		// other.
+		b := m.truncAt(h, n, h/2, capFree)
+		if !m.even {
+			b = math.Max(b, m.truncAt(h, n, -h/2, capFree))
+		}
+		return b
 	}
 	if m.monotone {
 		// Tails that decrease away from the centre are worst at the ends
 		// of the shift range; the middle covers a maximum inside. For an
 		// even function the two ends mirror each other.
-		b := m.truncAt(h, n, h/2)
-		c := m.truncAt(h, n, 0)
+		b := m.truncAt(h, n, h/2, capFree)
+		c := m.truncAt(h, n, 0, capFree)
 		if !m.even {
-			b = math.Max(b, m.truncAt(h, n, -h/2))
+			b = math.Max(b, m.truncAt(h, n, -h/2, capFree))
 		}
 		return math.Max(b, c)
 	}
 	worst := 0.0
 	for i := 0; i <= oscillatingShifts; i++ {
 		t := h * (float64(i)/oscillatingShifts - 0.5)
-		worst = math.Max(worst, m.truncAt(h, n, t))
+		worst = math.Max(worst, m.truncAt(h, n, t, capFree))
 	}
 	return worst
 }
@@ -435,13 +595,18 @@ func (m *planModel) trunc(h float64, n int64) float64 {
 const oscillatingShifts = 16
 
 // truncAt is the truncation for a window centred at center + t: the
-// omitted samples lie at center + t ± h·((N+1)/2 + i), i ≥ 0.
-func (m *planModel) truncAt(h float64, n int64, t float64) float64 {
+// omitted samples lie at center + t ± h·((N+1)/2 + i), i ≥ 0. capFree
+// (raysCapFree) says that the explicit terms of the model would never reach
+// modelTerms.
+func (m *planModel) truncAt(h float64, n int64, t float64, capFree bool) float64 {
 	M := float64(n+1) / 2
 	xr := m.center + t + M*h
 	xl := m.center + t - M*h
 	if m.val == nil {
 		return h * (envRay(m.spatial, xr, 1, h) + envRay(m.spatial, xl, -1, h))
+	}
+	if m.rayVal != nil && xr >= 0 && xl <= 0 {
+		return m.rayTrunc(h, xr, xl, capFree)
 	}
 	// As in the certificate (absTruncation): the first pair is always
 	// summed, and the count of explicit pairs doubles until the envelope's
@@ -466,6 +631,77 @@ func (m *planModel) truncAt(h float64, n int64, t float64) float64 {
 			return sum + r
 		}
 	}
+}
+
+// raysCapFree reports whether the ray sums of rayTrunc may skip the check
+// for the cap of the explicit model: the tails beyond modelTerms samples
+// of the nearest omitted samples over every shift, xr and xl, are far
+// below the remainder goal.
+func (m *planModel) raysCapFree(h, xr, xl float64) bool {
+	if m.rayVal == nil || xr < 0 || xl > 0 {
+		return false
+	}
+	if envFast(m.spatial, xr, h, modelTerms) && envFast(m.spatial, -xl, h, modelTerms) {
+		return true
+	}
+	d := modelTerms * h
+	return h*(m.rayVal(xr+d, h)+m.rayVal(-xl+d, h)) <= m.remGoal/16
+}
+
+// envFast reports whether every term of an envelope even about its centre
+// falls by more than 2⁻⁶⁰ over k steps of h along the ray from its
+// distance x ≥ 0 from the term's centre, from the decay parameters alone:
+// the ratio of consecutive terms is at most e^{-αh} (exponential) or
+// e^{-(2dh + h²)/(2σ²)} at distance d beyond the plateau (Gaussian), and a
+// compact term ends at its width. Then the remainder after k steps is
+// negligible and the model's caps cannot apply.
+func envFast(e Envelope, x, h float64, k int) bool {
+	const ln60 = 60 * math.Ln2
+	for _, t := range e {
+		d := math.Abs(x-t.Center) - t.Plateau
+		if x-t.Center < 0 || d < 0 {
+			return false
+		}
+		switch t.Decay {
+		case Exponential:
+			if float64(k)*t.Rate*h < ln60 {
+				return false
+			}
+		case Gaussian:
+			if float64(k)*(2*d*h+h*h)/(2*t.Width*t.Width) < ln60 {
+				return false
+			}
+		case Compact:
+			if d+float64(k)*h <= t.Width {
+				return false
+			}
+		default:
+			return false
+		}
+	}
+	return true
+}
+
+// rayTrunc is truncAt by rayVal, for a window around the centre 0 of an
+// even family. As truncAt, it takes the envelope's remainder after
+// modelTerms pairs when that remainder misses the goal (capped), unless
+// capFree says it cannot.
+func (m *planModel) rayTrunc(h, xr, xl float64, capFree bool) float64 {
+	sum := h * (m.rayVal(xr, h) + m.rayVal(-xl, h))
+	if capFree {
+		return sum
+	}
+	d := modelTerms * h
+	tail := h * (m.rayVal(xr+d, h) + m.rayVal(-xl+d, h))
+	if tail <= m.remGoal/16 || tail <= 0x1p-64*sum {
+		return sum
+	}
+	r := h * (envRay(m.spatial, xr+d, 1, h) + envRay(m.spatial, xl-d, -1, h))
+	if r == 0 || r <= m.remGoal || r <= 0x1p-60*(sum-tail) {
+		return sum
+	}
+	m.capped = math.Max(m.capped, r)
+	return sum - tail + r
 }
 
 // rounding returns the rounding bound of the engine for N samples of step

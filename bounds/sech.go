@@ -48,8 +48,10 @@ func (s SechFamily) Transform(xi Interval) Complex {
 //
 // an exponential term of amplitude 1, rate 1/w and plateau w·ln 2. The
 // ratio envelope/f is 1 at 0 and at infinity and at most 5/4 (at |u| = ln 2).
-func (s SechFamily) Spatial() Envelope {
-	return Envelope{cappedExponential(1, ln2.Hi, divDown(1, s.Width))}
+func (s SechFamily) Spatial() Envelope { return s.appendSpatial(nil) }
+
+func (s SechFamily) appendSpatial(dst Envelope) Envelope {
+	return append(dst, cappedExponential(1, ln2.Hi, divDown(1, s.Width)))
 }
 
 // Spectral bounds F in the same way,
@@ -57,7 +59,9 @@ func (s SechFamily) Spatial() Envelope {
 //	πw·sech(v) ≤ πw·min(1, 2e^{-|v|}),  v = πwξ/2:
 //
 // amplitude πw, rate πw/2 and plateau 2·ln 2/(πw).
-func (s SechFamily) Spectral() Envelope {
+func (s SechFamily) Spectral() Envelope { return s.appendSpectral(nil) }
+
+func (s SechFamily) appendSpectral(dst Envelope) Envelope {
 	pw := Pi.Scale(s.Width)
-	return Envelope{cappedExponential(pw.Hi, ln2.Hi, pw.Scale(0.5).Lo)}
+	return append(dst, cappedExponential(pw.Hi, ln2.Hi, pw.Scale(0.5).Lo))
 }

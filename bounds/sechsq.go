@@ -47,8 +47,10 @@ func (s SechSquaredFamily) Transform(xi Interval) Complex {
 //	sech²(u) ≤ min(1, 4e^{-2|u|}) = e^{-2·max(0, |u| - ln 2)},  u = x/w:
 //
 // amplitude 1, rate 2/w, plateau w·ln 2; ratio envelope/f ≤ 25/16.
-func (s SechSquaredFamily) Spatial() Envelope {
-	return Envelope{cappedExponential(1, mulUp(2, ln2.Hi), divDown(2, s.Width))}
+func (s SechSquaredFamily) Spatial() Envelope { return s.appendSpatial(nil) }
+
+func (s SechSquaredFamily) appendSpatial(dst Envelope) Envelope {
+	return append(dst, cappedExponential(1, mulUp(2, ln2.Hi), divDown(2, s.Width)))
 }
 
 // Spectral bounds F = 2w·q(v), v = πw|ξ|/2, by an exponential of rate
@@ -64,11 +66,13 @@ func (s SechSquaredFamily) Spatial() Envelope {
 // v = 31.5 and at most 1.64 for 10 ≤ v ≤ 60, the range where aliasing
 // errors of double-precision interest (e^{-60} to e^{-10}) arise; it peaks
 // at about 4 where the plateau ends (v ≈ 3.3).
-func (s SechSquaredFamily) Spectral() Envelope {
+func (s SechSquaredFamily) Spectral() Envelope { return s.appendSpectral(nil) }
+
+func (s SechSquaredFamily) appendSpectral(dst Envelope) Envelope {
 	w := s.Width
 	rate := Pi.Scale(31.0 / 64).Scale(w).Lo
 	lnB := ln2.Scale(6).AddFloat(-63.0 / 64).Hi
-	return Envelope{cappedExponential(mulUp(2, w), lnB, rate)}
+	return append(dst, cappedExponential(mulUp(2, w), lnB, rate))
 }
 
 // xOverSinhCoef encloses the Taylor coefficients c₁…c₅ of

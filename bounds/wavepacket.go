@@ -58,17 +58,19 @@ func (p WavePacketFamily) Transform(xi Interval) Complex {
 
 // Spatial is the Gaussian factor: |f(x)| ≤ exp(-x²/(2σ²)), one Gaussian
 // term of amplitude 1 and width σ (exact where |cos ω₀x| = 1).
-func (p WavePacketFamily) Spatial() Envelope {
-	return Envelope{{Decay: Gaussian, Amplitude: 1, Width: p.Sigma}}
+func (p WavePacketFamily) Spatial() Envelope { return p.appendSpatial(nil) }
+
+func (p WavePacketFamily) appendSpatial(dst Envelope) Envelope {
+	return append(dst, EnvelopeTerm{Decay: Gaussian, Amplitude: 1, Width: p.Sigma})
 }
 
 // Spectral is F itself: two Gaussian terms of amplitude σ√(π/2) (rounded
 // up) and width 1/σ (rounded up), centred at ±ω₀.
-func (p WavePacketFamily) Spectral() Envelope {
+func (p WavePacketFamily) Spectral() Envelope { return p.appendSpectral(nil) }
+
+func (p WavePacketFamily) appendSpectral(dst Envelope) Envelope {
 	A := SqrtTwoPi.Scale(0.5 * p.Sigma).Hi
 	w := divUp(1, p.Sigma)
-	return Envelope{
-		{Decay: Gaussian, Amplitude: A, Center: -p.Omega0, Width: w},
-		{Decay: Gaussian, Amplitude: A, Center: p.Omega0, Width: w},
-	}
+	return append(dst, EnvelopeTerm{Decay: Gaussian, Amplitude: A, Center: -p.Omega0, Width: w},
+		EnvelopeTerm{Decay: Gaussian, Amplitude: A, Center: p.Omega0, Width: w})
 }

@@ -1,0 +1,74 @@
+package bounds
+
+import (
+	"math"
+	"testing"
+
+	"foldbound/internal/bigref"
+)
+
+// TestExpThin checks the one-call path of Exp for thin intervals against
+// e^x in math/big at both ends, and that it is as tight as two calls
+// (within 1e-15 relative, outside the subnormal range).
+func TestExpThin(t *testing.T) {
+	for _, lo := range []float64{-745, -700.5, -80.25, -3.1, -1e-300, 0, 1e-20, 0.7, 12.5, 700, 708.9} {
+		for _, d := range []float64{0x1p-52, 1e-14, 3e-9, 0x1p-26} {
+			x := Interval{lo, lo + d*math.Max(1, math.Abs(lo))}
+			if x.Hi-x.Lo > 0x1p-26 || x.Hi > expDirect {
+				continue
+			}
+			got := Exp(x)
+			for _, v := range []float64{x.Lo, x.Hi} {
+				if want := bigref.Exp(bigref.New(v)); !bigref.In(got.Lo, got.Hi, want) {
+					t.Errorf("Exp(%v) = %v does not contain e^%g = %.17g", x, got, v, bigref.Float64(want))
+				}
+			}
+			_, hi := expBounds(x.Hi)
+			if hi > 1e-300 && got.Hi > hi*(1+1e-15) {
+				t.Errorf("Exp(%v).Hi = %g, want about e^Hi = %g", x, got.Hi, hi)
+			}
+		}
+	}
+}
+
+// TestIsEven checks the families isEven calls even against their values
+// and transforms at mirrored points, and that it does not call a shifted
+// or modulated family even.
+func TestIsEven(t *testing.T) {
+	even := []Family{
+		GaussianFamily{Sigma: 0.7}, ExponentialFamily{Rate: 2}, LorentzianFamily{Width: 1.5},
+		SechFamily{Width: 0.4}, SechSquaredFamily{Width: 2}, FejerFamily{Omega: 3},
+		WavePacketFamily{Sigma: 1, Omega0: 3}, BSplineFamily{Order: 5}, KaiserBesselFamily{Width: 6, Beta: 14.1},
+		AmplitudeFamily{Re: 2, Im: -1, Of: SechFamily{Width: 1}}, DilationFamily{By: -2.5, Of: GaussianFamily{Sigma: 1}},
+		SumFamily{Terms: []Family{GaussianFamily{Sigma: 1}, BSplineFamily{Order: 3}}},
+		ShiftFamily{By: 0, Of: GaussianFamily{Sigma: 1}},
+	}
+	for _, f := range even {
+		if !isEven(f) {
+			t.Errorf("isEven(%v) = false, want true", f)
+			continue
+		}
+		for _, x := range []float64{0.1, 0.77, 1.9, 4.2} {
+			a, b := f.Value(Point(x)), f.Value(Point(-x))
+			if !overlaps(a, b) {
+				t.Errorf("%v: f(%g) = %v, f(%g) = %v, want equal (even)", f, x, a, -x, b)
+			}
+			A, B := f.Transform(Point(x)), f.Transform(Point(-x))
+			if !overlaps(A, B) {
+				t.Errorf("%v: F(%g) = %v, F(%g) = %v, want equal (even)", f, x, A, -x, B)
+			}
+		}
+	}
+	for _, f := range []Family{ShiftFamily{By: 0.3, Of: GaussianFamily{Sigma: 1}}, ModulationFamily{Omega0: 2, Of: GaussianFamily{Sigma: 1}},
+		SumFamily{Terms: []Family{GaussianFamily{Sigma: 1}, ShiftFamily{By: 1, Of: SechFamily{Width: 1}}}}} {
+		if isEven(f) {
+			t.Errorf("isEven(%v) = true, want false", f)
+		}
+	}
+}
+
+func overlaps(a, b Complex) bool {
+	_, re := a.Re.Intersect(b.Re)
+	_, im := a.Im.Intersect(b.Im)
+	return re && im
+}
