@@ -170,6 +170,48 @@ type axisState struct {
 	// hMax is the largest step whose weighted aliasing is within the
 	// whole tolerance.
 	hMax float64
+	// parts caches the unweighted model aliasing, truncation and window
+	// sum that composed needs at a count's chosen step: the local search
+	// of improve composes the same few counts many times.
+	parts []axisPartsMemo
+}
+
+// axisPartsMemo is one entry of axisState.parts, with what it depends on
+// besides the planModel's fixed fields.
+type axisPartsMemo struct {
+	n                 int64
+	h, remGoal        float64
+	cap               int
+	alias, trunc, sum float64
+}
+
+// axisPartsMemoSize bounds the entries of axisState.parts.
+const axisPartsMemoSize = 64
+
+// modelParts returns the model's aliasing (with the alias term cap cap)
+// and truncation of n samples of step h, and the window-sum bound S at h,
+// from the memo when they were computed before under the same remainder
+// goal.
+func (a *axisState) modelParts(n int64, h float64, cap int) (alias, trunc, sum float64) {
+	m := &a.p.m
+	for i := len(a.parts) - 1; i >= 0; i-- {
+		e := &a.parts[i]
+		if e.n == n && e.h == h && e.cap == cap && e.remGoal == m.remGoal {
+			return e.alias, e.trunc, e.sum
+		}
+	}
+	m.aliasCap = cap
+	alias = m.alias(h)
+	m.aliasCap = 0
+	trunc = m.trunc(h, n)
+	for _, t := range m.spatial {
+		sum += latticeTermSumFloat(t, h)
+	}
+	if len(a.parts) >= axisPartsMemoSize {
+		a.parts = a.parts[:copy(a.parts, a.parts[axisPartsMemoSize/2:])]
+	}
+	a.parts = append(a.parts, axisPartsMemo{n: n, h: h, remGoal: m.remGoal, cap: cap, alias: alias, trunc: trunc, sum: sum})
+	return alias, trunc, sum
 }
 
 // wMax is the larger of the axis's two weights.
@@ -186,6 +228,8 @@ type plannerND struct {
 	// separable is true when every axis is a family: the function is
 	// then the product of the axes' families.
 	separable bool
+	// hs is scratch space for composed.
+	hs []float64
 }
 
 func newPlannerND(ctx context.Context, req PlanNDRequest) *plannerND {
@@ -353,9 +397,9 @@ func (a *axisState) errFull(n int64) axisErr {
 	return r
 }
 
-// roundingND is the model of the n-D rounding bound for counts ns and
-// steps hs.
-func (p *plannerND) roundingND(ns []int64, hs []float64) float64 {
+// roundingND is the model of the n-D rounding bound for counts ns, steps
+// hs and the axes' window-sum bounds sums.
+func (p *plannerND) roundingND(ns []int64, hs, sums []float64) float64 {
 	const u = unitRoundoff
 	N := 1.0
 	S := 1.0
@@ -363,13 +407,8 @@ func (p *plannerND) roundingND(ns []int64, hs []float64) float64 {
 	anyXi := false
 	for j := range ns {
 		N *= float64(ns[j])
-		a := p.axes[p.of[j]]
-		m := &a.p.m
-		s := 0.0
-		for _, t := range m.spatial {
-			s += latticeTermSumFloat(t, hs[j])
-		}
-		S *= s
+		m := &p.axes[p.of[j]].p.m
+		S *= sums[j]
 		if m.xiMag != 0 {
 			anyXi = true
 			x := math.Abs(m.gridShift(hs[j], ns[j])) + hs[j]*float64(ns[j]/2+1)
@@ -394,33 +433,29 @@ func (r PlanNDRequest) sampleUlps() float64 {
 }
 
 // composed returns the model of the whole n-D budget for counts ns: the
-// composition of the axes' least errors and the rounding.
+// composition of the axes' least errors and the rounding. The steps it
+// returns are in p.hs, valid until the next call.
 func (p *plannerND) composed(ns []int64) (float64, []float64) {
 	n := len(ns)
-	hs := make([]float64, n)
-	caps := make([]int, n)
-	alias := make([]float64, n)
-	trunc := make([]float64, n)
+	if cap(p.hs) < 4*n {
+		p.hs = make([]float64, 4*n)
+	}
+	buf := p.hs[:4*n]
+	hs, alias, trunc, sums := buf[:n:n], buf[n:2*n:2*n], buf[2*n:3*n:3*n], buf[3*n:]
+	clear(hs)
 	for j := range ns {
 		a := p.axes[p.of[j]]
 		r := a.errFull(ns[j])
 		if math.IsInf(r.e, 1) {
 			return math.Inf(1), hs
 		}
-		hs[j], caps[j] = r.h, r.cap
-		m := &a.p.m
-		m.aliasCap = r.cap
-		alias[j] = m.alias(r.h)
-		m.aliasCap = 0
-		trunc[j] = m.trunc(r.h, ns[j])
+		hs[j] = r.h
+		alias[j], trunc[j], sums[j] = a.modelParts(ns[j], r.h, r.cap)
 	}
 	pa, pm, pt, ps := 1.0, 1.0, 1.0, 1.0
 	for j := range ns {
 		a := p.axes[p.of[j]]
-		s := 0.0
-		for _, t := range a.p.m.spatial {
-			s += latticeTermSumFloat(t, hs[j])
-		}
+		s := sums[j]
 		M := math.Min(a.M, s)
 		W := s
 		if p.separable {
@@ -431,7 +466,7 @@ func (p *plannerND) composed(ns []int64) (float64, []float64) {
 		pt *= W + trunc[j]
 		ps *= W
 	}
-	return (pa - pm) + (pt - ps) + p.roundingND(ns, hs), hs
+	return (pa - pm) + (pt - ps) + p.roundingND(ns, hs, sums), hs
 }
 
 func (p *plannerND) plan() (PlanND, error) {
@@ -659,6 +694,7 @@ func (p *plannerND) certify(ns []int64) (PlanND, error) {
 func (p *plannerND) certifyOnce(ns []int64) (PlanND, error) {
 	n := len(ns)
 	_, hs := p.composed(ns)
+	hs = append([]float64(nil), hs...)
 	res := PlanND{Axes: make([]Plan, n), Shares: make([]float64, n)}
 	type key struct {
 		k int
