@@ -638,7 +638,6 @@ func (p *planner1) feasible(n int64) (bool, float64, float64) {
 // deems feasible. It returns the count, or 0 with the least modelled total seen
 // and the count where it was seen when the tolerance is out of reach.
 func (p *planner1) searchCount(limit int64) (n int64, floor float64, floorAt int64, err error) {
-	cost := p.req.Cost
 	// A first guess from the aliasing-limited step and the spatial reach.
 	// A step a little below the aliasing limit, where the optimum usually
 	// lies.
@@ -660,6 +659,15 @@ func (p *planner1) searchCount(limit int64) (n int64, floor float64, floorAt int
 			guess = int64(math.Ceil(g))
 		}
 	}
+	return p.searchFrom(guess, 0, limit)
+}
+
+// searchFrom finds the least admissible count in [least, limit] that the
+// model deems feasible, galloping from the count guess (the next admissible
+// one) and then bisecting; least = 0 means no lower limit. It returns as
+// searchCount does.
+func (p *planner1) searchFrom(guess, least, limit int64) (n int64, floor float64, floorAt int64, err error) {
+	cost := p.req.Cost
 	floor = math.Inf(1)
 	note := func(n int64, v float64) {
 		if v < floor {
@@ -676,14 +684,17 @@ func (p *planner1) searchCount(limit int64) (n int64, floor float64, floorAt int
 	note(cur, v)
 	if ok {
 		hi = cur
+		if hi <= least {
+			return hi, floor, floorAt, nil
+		}
 		d := max(hi/8, 1)
 		for {
 			if err := p.ctx.Err(); err != nil {
 				return 0, 0, 0, fmt.Errorf("bounds: plan: %w", err)
 			}
 			c := cost.Prev(hi - d)
-			if c < 1 {
-				lo = 0
+			if c < max(least, 1) {
+				lo = max(least-1, 0)
 				break
 			}
 			ok, _, v := p.feasible(c)
@@ -704,6 +715,12 @@ func (p *planner1) searchCount(limit int64) (n int64, floor float64, floorAt int
 				return 0, 0, 0, fmt.Errorf("bounds: plan: %w", err)
 			}
 			if lo >= limit {
+				return 0, floor, floorAt, nil
+			}
+			// The modelled rounding grows with the count and bounds every
+			// total below: once it reaches the least total seen, no larger
+			// count is feasible or lowers that least total.
+			if p.roundingFloor(lo) >= floor {
 				return 0, floor, floorAt, nil
 			}
 			c := cost.Next(min(lo+d, limit))
@@ -749,6 +766,28 @@ func (p *planner1) searchCount(limit int64) (n int64, floor float64, floorAt int
 			lo = mid
 		}
 	}
+}
+
+// roundingFloor returns a lower bound of the modelled rounding of more than
+// n samples at any step, 0 when the model leaves the rounding out: the
+// factor of the window-sum bound grows with the count, and the window-sum
+// bound of each envelope term is at least its integral (latticeTermSumFloat;
+// the margin covers the roundings of that comparison).
+func (p *planner1) roundingFloor(n int64) float64 {
+	if p.m.noRound {
+		return 0
+	}
+	const u = unitRoundoff
+	nu := float64(n+3) * u
+	rel := nu/(1-nu) + p.m.ulps*u
+	s := 0.0
+	for _, t := range p.m.spatial {
+		s += termIntegral(t)
+	}
+	if !finite(s) {
+		return 0
+	}
+	return rel * s * (1 - 0x1p-20)
 }
 
 // compactCandidates tries, for a family of compact support of width W,
