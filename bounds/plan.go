@@ -317,6 +317,10 @@ func newPlanner1(ctx context.Context, req PlanRequest) *planner1 {
 			// Even about 0, where their envelopes are centred, and
 			// decreasing in |x|.
 			m.monotone, m.even = true, m.center == 0
+		case WavePacketFamily, FejerFamily:
+			// Even about 0, where their envelopes are centred; |f|
+			// oscillates.
+			m.even = m.center == 0
 		}
 	}
 	// Aliasing in modulus that grows with the step: copies of a transform

@@ -582,8 +582,15 @@ func (m *planModel) trunc(h float64, n int64) float64 {
 		}
 		return math.Max(b, c)
 	}
+	// For an even function about the centre the window at shift -t
+	// mirrors that at t (the shifts sampled are symmetric, exactly in
+	// float64): the shifts t ≥ 0 suffice.
+	first := 0
+	if m.even {
+		first = oscillatingShifts / 2
+	}
 	worst := 0.0
-	for i := 0; i <= oscillatingShifts; i++ {
+	for i := first; i <= oscillatingShifts; i++ {
 		t := h * (float64(i)/oscillatingShifts - 0.5)
 		worst = math.Max(worst, m.truncAt(h, n, t, capFree))
 	}
