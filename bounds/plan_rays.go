@@ -30,15 +30,22 @@ import "math"
 const rayTerms = 256
 
 // pointRays returns rayVal and rayTr for the even families centred at 0
-// that have them, nil otherwise.
+// that have them, nil otherwise. Some keep the factors of the last step
+// they saw (rayStep): each planner gets its own, not for concurrent use.
 func pointRays(f Family) (rayVal, rayTr func(x, h float64) float64) {
 	switch g := f.(type) {
 	case GaussianFamily:
 		s := g.Sigma
 		amp := s * math.Sqrt(2*math.Pi)
 		is := 1 / s
-		return func(x, h float64) float64 { return gaussRay(x, h, s) },
-			func(xi, P float64) float64 { return amp * gaussRay(xi, P, is) }
+		var cv, ct rayStep
+		return func(x, h float64) float64 {
+				cv.set(h, s, 0)
+				return gaussRayQ(x, h, s, cv.inv, cv.q)
+			}, func(xi, P float64) float64 {
+				ct.set(P, is, 0)
+				return amp * gaussRayQ(xi, P, is, ct.inv, ct.q)
+			}
 	case ExponentialFamily:
 		a := g.Rate
 		return func(x, h float64) float64 { return expRay(x, h, a) },
@@ -60,7 +67,11 @@ func pointRays(f Family) (rayVal, rayTr func(x, h float64) float64) {
 		s, w0 := g.Sigma, math.Abs(g.Omega0)
 		amp := s * math.Sqrt(math.Pi/2)
 		is := 1 / s
-		return func(x, h float64) float64 { return wavePacketRay(x, h, s, w0) },
+		var cv rayStep
+		return func(x, h float64) float64 {
+				cv.set(h, s, w0)
+				return wavePacketRayStep(x, w0, &cv)
+			},
 			func(xi, P float64) float64 {
 				// Two Gaussians centred at ±ω₀; the ray from ξ meets the
 				// one at ω₀ before or after its centre.
@@ -81,9 +92,13 @@ func expRay(x, h, a float64) float64 {
 // Euler–Maclaurin after rayTerms terms.
 func gaussRay(x, h, s float64) float64 {
 	inv := 0.5 / (s * s)
+	return gaussRayQ(x, h, s, inv, math.Exp(-2*h*h*inv))
+}
+
+// gaussRayQ is gaussRay given inv = 1/(2σ²) and q = e^{-2h²·inv}.
+func gaussRayQ(x, h, s, inv, q float64) float64 {
 	t := math.Exp(-x * x * inv)
 	r := math.Exp(-(2*x*h + h*h) * inv)
-	q := math.Exp(-2 * h * h * inv)
 	sum := 0.0
 	for i := 0; i < rayTerms; i++ {
 		if t == 0 {
@@ -121,12 +136,38 @@ func gaussLineRay(x, h, s float64) float64 {
 // wavePacketRay returns Σ_{i≥0} e^{-(x+ih)²/(2σ²)}·|cos(ω₀(x+ih))| for
 // x ≥ 0, the Gaussian factor as in gaussRay and the cosine by rotation.
 func wavePacketRay(x, h, s, w0 float64) float64 {
-	inv := 0.5 / (s * s)
+	var c rayStep
+	c.set(h, s, w0)
+	return wavePacketRayStep(x, w0, &c)
+}
+
+// rayStep holds what the ray sums of a Gaussian factor e^{-x²/(2σ²)}
+// (and a cosine cos ω₀x) at step h need besides the starting point:
+// inv = 1/(2σ²), q = e^{-2h²·inv} and sin, cos of ω₀h. A planner's rays
+// share one step over many starting points.
+type rayStep struct {
+	h, inv, q, ds, dc float64
+	ok                bool
+}
+
+// set computes the step's factors unless they are those of h already.
+func (c *rayStep) set(h, s, w0 float64) {
+	if c.ok && c.h == h {
+		return
+	}
+	c.h, c.ok = h, true
+	c.inv = 0.5 / (s * s)
+	c.q = math.Exp(-2 * h * h * c.inv)
+	c.ds, c.dc = math.Sincos(w0 * h)
+}
+
+// wavePacketRayStep is wavePacketRay with the step's factors in c.
+func wavePacketRayStep(x, w0 float64, c *rayStep) float64 {
+	h, inv, q := c.h, c.inv, c.q
 	t := math.Exp(-x * x * inv)
 	r := math.Exp(-(2*x*h + h*h) * inv)
-	q := math.Exp(-2 * h * h * inv)
 	sn, cs := math.Sincos(w0 * x)
-	ds, dc := math.Sincos(w0 * h)
+	ds, dc := c.ds, c.dc
 	sum := 0.0
 	for i := 0; i < 4*rayTerms; i++ {
 		if t == 0 {
