@@ -221,44 +221,71 @@ type planner1 struct {
 	memo []modelValue
 }
 
-// modelValue is a model total, its weighted aliasing and truncation, and
-// what they depend on besides the planModel's fixed fields.
+// modelValue is a model total with its weighted aliasing and truncation,
+// the unweighted parts they are formed from, and what those depend on
+// besides the planModel's fixed fields.
 type modelValue struct {
-	h, remGoal, wA, wT float64
-	n                  int64
-	v, a, t            float64
+	h, remGoal float64
+	n          int64
+	// alias, trunc and round are the model's unweighted aliasing (which
+	// depends on the step alone), truncation and rounding (0 when the
+	// model leaves it out).
+	alias, trunc, round float64
+	// wA and wT are the weights v, a and t were formed with.
+	wA, wT  float64
+	v, a, t float64
 }
 
 // memoSize bounds the model totals a planner keeps.
 const memoSize = 256
 
 // cachedTotal returns p.m.total(h, n), from the memo when it was computed
-// before under the same remainder goal and weights.
+// before under the same remainder goal.
 func (p *planner1) cachedTotal(h float64, n int64) float64 {
 	return p.modelParts(h, n).v
 }
 
 // modelParts returns the memo entry of the model at (h, n), computing it
-// if needed.
+// if needed. The aliasing of a step is computed once for every count, and
+// the parts once for every weighting.
 func (p *planner1) modelParts(h float64, n int64) *modelValue {
 	m := &p.m
+	var same *modelValue // an entry of the same step, for its aliasing
 	for i := len(p.memo) - 1; i >= 0; i-- {
 		e := &p.memo[i]
-		if e.h == h && e.n == n && e.remGoal == m.remGoal && e.wA == m.wA && e.wT == m.wT {
-			return e
+		if e.h != h || e.remGoal != m.remGoal {
+			continue
 		}
+		if e.n != n {
+			if same == nil {
+				same = e
+			}
+			continue
+		}
+		if e.wA != m.wA || e.wT != m.wT {
+			e.wA, e.wT = m.wA, m.wT
+			e.a, e.t, e.v = m.weighParts(e.alias, e.trunc, e.round)
+		}
+		return e
 	}
 	p.evals++
-	a := m.weightedAlias(h)
-	t := m.trunc(h, n) * weight(m.wT)
-	v := a + t
-	if !m.noRound {
-		v += m.rounding(h, n)
+	var alias float64
+	if same != nil {
+		alias = same.alias
+	} else {
+		alias = m.alias(h)
 	}
+	trunc := m.trunc(h, n)
+	round := 0.0
+	if !m.noRound {
+		round = m.rounding(h, n)
+	}
+	a, t, v := m.weighParts(alias, trunc, round)
 	if len(p.memo) >= memoSize {
 		p.memo = p.memo[:copy(p.memo, p.memo[memoSize/2:])]
 	}
-	p.memo = append(p.memo, modelValue{h: h, remGoal: m.remGoal, wA: m.wA, wT: m.wT, n: n, v: v, a: a, t: t})
+	p.memo = append(p.memo, modelValue{h: h, remGoal: m.remGoal, n: n, alias: alias, trunc: trunc, round: round,
+		wA: m.wA, wT: m.wT, v: v, a: a, t: t})
 	return &p.memo[len(p.memo)-1]
 }
 

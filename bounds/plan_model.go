@@ -774,6 +774,19 @@ func (m *planModel) total(h float64, n int64) float64 {
 	return v
 }
 
+// weighParts returns the weighted aliasing and truncation of unweighted
+// parts and the total with the rounding (left out when noRound), formed as
+// total forms them.
+func (m *planModel) weighParts(alias, trunc, round float64) (a, t, v float64) {
+	a = alias * weight(m.wA)
+	t = trunc * weight(m.wT)
+	v = a + t
+	if !m.noRound {
+		v += round
+	}
+	return a, t, v
+}
+
 // weightedAlias returns the aliasing model times its weight.
 func (m *planModel) weightedAlias(h float64) float64 { return m.alias(h) * weight(m.wA) }
 
