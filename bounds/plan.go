@@ -370,8 +370,12 @@ func newPlanner1(ctx context.Context, req PlanRequest) *planner1 {
 		w := b.HalfWidth
 		m.xis = []float64{b.Center - w, b.Center - w/2, b.Center, b.Center + w/2, b.Center + w}
 	}
-	return &planner1{ctx: ctx, req: req, m: m, tol: req.Tol}
+	return &planner1{ctx: ctx, req: req, m: m, tol: req.Tol, memo: make([]modelValue, 0, memoStart)}
 }
+
+// memoStart is the memo capacity a planner starts with: a 1-D plan
+// typically evaluates the model a few dozen times.
+const memoStart = 16
 
 // hRes is the least step that N samples may have under the resolution
 // requirement N·h ≥ 2π/Δξ.

@@ -158,7 +158,9 @@ func (c *rayStep) set(h, s, w0 float64) {
 	c.h, c.ok = h, true
 	c.inv = 0.5 / (s * s)
 	c.q = math.Exp(-2 * h * h * c.inv)
-	c.ds, c.dc = math.Sincos(w0 * h)
+	if w0 != 0 {
+		c.ds, c.dc = math.Sincos(w0 * h)
+	}
 }
 
 // wavePacketRayStep is wavePacketRay with the step's factors in c.

@@ -255,6 +255,9 @@ func newPlannerND(ctx context.Context, req PlanNDRequest) *plannerND {
 		ar := req.axis(j)
 		ap := newPlanner1(ctx, ar)
 		ap.m.noRound = true
+		// The axes of an n-D plan are searched for several shares of
+		// the tolerance.
+		ap.memo = make([]modelValue, 0, 8*memoStart)
 		st := &axisState{p: ap, errs: map[int64]axisErr{}}
 		p.of[j] = len(p.axes)
 		p.axes = append(p.axes, st)
