@@ -402,39 +402,44 @@ func (p *planner1) stepForAlias(eps, rel float64) float64 {
 	if omega > 0 && finite(omega) {
 		h = 2 * math.Pi / omega
 	}
+	// The bracket's ends and their aliasing, kept for the first step of
+	// the regula falsi.
 	lo, hi := 0.0, 0.0
-	if p.m.weightedAlias(h) <= eps {
-		lo = h
+	var alo, ahi float64
+	if a := p.m.weightedAlias(h); a <= eps {
+		lo, alo = h, a
 		for i := 0; ; i++ {
 			h *= 2
 			if i > 60 {
 				return math.Inf(1)
 			}
-			if p.m.weightedAlias(h) > eps {
-				hi = h
+			a := p.m.weightedAlias(h)
+			if a > eps {
+				hi, ahi = h, a
 				break
 			}
-			lo = h
+			lo, alo = h, a
 		}
 	} else {
-		hi = h
+		hi, ahi = h, a
 		for i := 0; ; i++ {
 			h /= 2
 			if i > 200 {
 				return 0
 			}
-			if p.m.weightedAlias(h) <= eps {
-				lo = h
+			a := p.m.weightedAlias(h)
+			if a <= eps {
+				lo, alo = h, a
 				break
 			}
-			hi = h
+			hi, ahi = h, a
 		}
 	}
 	// Regula falsi with the Illinois modification on log(alias) against
 	// log h, falling back to bisection where the aliasing vanishes.
 	le := math.Log(eps)
 	g := func(h float64) float64 { return math.Log(p.m.weightedAlias(h)) - le }
-	glo, ghi := g(lo), g(hi)
+	glo, ghi := math.Log(alo)-le, math.Log(ahi)-le
 	side := 0
 	for hi/lo > 1+rel {
 		ulo, uhi := math.Log(lo), math.Log(hi)
