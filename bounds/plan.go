@@ -709,9 +709,15 @@ func (p *planner1) searchCount(limit int64) (n int64, floor float64, floorAt int
 func (p *planner1) searchFrom(guess, least, limit int64) (n int64, floor float64, floorAt int64, err error) {
 	cost := p.req.Cost
 	floor = math.Inf(1)
+	// The two largest infeasible counts seen and their least modelled
+	// totals, for the interpolation of the bisection.
+	var miss [2]countTotal
 	note := func(n int64, v float64) {
 		if v < floor {
 			floor, floorAt = v, n
+		}
+		if v > p.tol && finite(v) && n > miss[1].n {
+			miss[0], miss[1] = miss[1], countTotal{n, v}
 		}
 	}
 	// Gallop: find lo infeasible, hi feasible.
@@ -786,26 +792,75 @@ func (p *planner1) searchFrom(guess, least, limit int64) (n int64, floor float64
 			d *= 2
 		}
 	}
-	// Bisect between lo (infeasible or 0) and hi (feasible).
+	// Bisect between lo (infeasible or 0) and hi (feasible). Where the
+	// least total falls steadily with the count — tails that decrease away
+	// from the centre, taken over every shift — split where the least
+	// totals of the two largest infeasible counts, joined on log-log axes,
+	// reach the tolerance (regula falsi; a plain halving after two such
+	// splits in a row that only lowered hi). Elsewhere (a fixed shift, an
+	// oscillating tail) the feasible counts need not form a half-line, and
+	// plain halving keeps the counts it visits those of earlier versions.
+	interpolate := p.m.monotone && p.m.anyShift
+	highSplits := 0
 	for {
 		if err := p.ctx.Err(); err != nil {
 			return 0, 0, 0, fmt.Errorf("bounds: plan: %w", err)
 		}
 		mid := cost.Next(lo + (hi-lo)/2)
+		split := false
+		if interpolate && highSplits < 2 && miss[0].n > 0 && miss[1].n == lo {
+			if est, ok := crossing(miss[0], miss[1], p.tol); ok {
+				g := int64(math.Min(math.Ceil(est), float64(hi-1)))
+				mid, split = cost.Next(max(g, lo+1)), true
+			}
+		}
 		if mid <= lo {
 			mid = cost.Next(lo + 1)
 		}
 		if mid >= hi {
-			return hi, floor, floorAt, nil
+			if split {
+				// The split fell on hi: take the count below it.
+				mid = cost.Prev(hi - 1)
+			}
+			if mid <= lo || mid >= hi {
+				return hi, floor, floorAt, nil
+			}
 		}
 		ok, _, v := p.feasible(mid)
 		note(mid, v)
-		if ok {
+		switch {
+		case ok && split:
 			hi = mid
-		} else {
+			highSplits++
+		case ok:
+			hi = mid
+			highSplits = 0
+		default:
 			lo = mid
+			highSplits = 0
 		}
 	}
+}
+
+// countTotal is a count with its least modelled total.
+type countTotal struct {
+	n int64
+	v float64
+}
+
+// crossing returns where the line through a and b (a.n < b.n, a.v > b.v >
+// tol) on log-log axes reaches tol.
+func crossing(a, b countTotal, tol float64) (float64, bool) {
+	if !(a.n < b.n && a.v > b.v && b.v > tol) {
+		return 0, false
+	}
+	x0, x1 := math.Log(float64(a.n)), math.Log(float64(b.n))
+	y0, y1, yt := math.Log(a.v), math.Log(b.v), math.Log(tol)
+	x := x1 + (yt-y1)*(x1-x0)/(y1-y0)
+	if !finite(x) || x > 60 {
+		return 0, false
+	}
+	return math.Exp(x), true
 }
 
 // roundingFloor returns a lower bound of the modelled rounding of more than
