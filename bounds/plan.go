@@ -1039,7 +1039,16 @@ func (p *planner1) plan() (Plan, error) {
 		}
 		p.tol = math.Min(p.tol, tol/ratio) * finalMargin
 		p.hint = h
-		next, _, _, err := p.searchCount(limit)
+		var next int64
+		if p.m.monotone && p.m.anyShift {
+			// The least total falls steadily with the count (see
+			// searchFrom) and the tolerance only fell: the least feasible
+			// count is at least n.
+			p.hint = 0.97 * p.hMax
+			next, _, _, err = p.searchFrom(n, n, limit)
+		} else {
+			next, _, _, err = p.searchCount(limit)
+		}
 		if err != nil {
 			return Plan{}, err
 		}
