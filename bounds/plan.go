@@ -221,9 +221,8 @@ type planner1 struct {
 	memo []modelValue
 }
 
-// modelValue is a model total with its weighted aliasing and truncation,
-// the unweighted parts they are formed from, and what those depend on
-// besides the planModel's fixed fields.
+// modelValue is a memo entry of the model: its unweighted parts and what
+// they depend on besides the planModel's fixed fields.
 type modelValue struct {
 	h, remGoal float64
 	n          int64
@@ -231,10 +230,10 @@ type modelValue struct {
 	// depends on the step alone), truncation and rounding (0 when the
 	// model leaves it out).
 	alias, trunc, round float64
-	// wA and wT are the weights v, a and t were formed with.
-	wA, wT  float64
-	v, a, t float64
 }
+
+// modelTotal is a model total with its weighted aliasing and truncation.
+type modelTotal struct{ a, t, v float64 }
 
 // memoSize bounds the model totals a planner keeps.
 const memoSize = 256
@@ -245,10 +244,10 @@ func (p *planner1) cachedTotal(h float64, n int64) float64 {
 	return p.modelParts(h, n).v
 }
 
-// modelParts returns the memo entry of the model at (h, n), computing it
-// if needed. The aliasing of a step is computed once for every count, and
-// the parts once for every weighting.
-func (p *planner1) modelParts(h float64, n int64) *modelValue {
+// modelParts returns the model at (h, n) under the current weights, from
+// the memo when its parts were computed before. The aliasing of a step is
+// computed once for every count.
+func (p *planner1) modelParts(h float64, n int64) modelTotal {
 	m := &p.m
 	var same *modelValue // an entry of the same step, for its aliasing
 	for i := len(p.memo) - 1; i >= 0; i-- {
@@ -262,11 +261,8 @@ func (p *planner1) modelParts(h float64, n int64) *modelValue {
 			}
 			continue
 		}
-		if e.wA != m.wA || e.wT != m.wT {
-			e.wA, e.wT = m.wA, m.wT
-			e.a, e.t, e.v = m.weighParts(e.alias, e.trunc, e.round)
-		}
-		return e
+		a, t, v := m.weighParts(e.alias, e.trunc, e.round)
+		return modelTotal{a, t, v}
 	}
 	p.evals++
 	var alias float64
@@ -280,13 +276,12 @@ func (p *planner1) modelParts(h float64, n int64) *modelValue {
 	if !m.noRound {
 		round = m.rounding(h, n)
 	}
-	a, t, v := m.weighParts(alias, trunc, round)
 	if len(p.memo) >= memoSize {
 		p.memo = p.memo[:copy(p.memo, p.memo[memoSize/2:])]
 	}
-	p.memo = append(p.memo, modelValue{h: h, remGoal: m.remGoal, n: n, alias: alias, trunc: trunc, round: round,
-		wA: m.wA, wT: m.wT, v: v, a: a, t: t})
-	return &p.memo[len(p.memo)-1]
+	p.memo = append(p.memo, modelValue{h: h, remGoal: m.remGoal, n: n, alias: alias, trunc: trunc, round: round})
+	a, t, v := m.weighParts(alias, trunc, round)
+	return modelTotal{a, t, v}
 }
 
 // cannotReach reports whether the modelled total of n samples stays above
