@@ -132,7 +132,8 @@ func pointEvaluators(f Family) (absVal, absTr func(float64) float64, tr func(flo
 				}
 				return math.Abs(intPowFloat(math.Sin(u)/u, m))
 			}
-			return func(x float64) float64 { return bsplineFloat(m, x) }, absTr,
+			b := newBSplineEval(m)
+			return b.at, absTr,
 				func(xi float64) complex128 {
 					u := xi / 2
 					if u == 0 {
@@ -171,9 +172,31 @@ func intPowFloat(v float64, n int) float64 {
 	return r
 }
 
-// bsplineFloat returns the centred cardinal B-spline of order m at x by
-// the truncated-power formula at -|x| (see BSplineFamily).
-func bsplineFloat(m int, x float64) float64 {
+// bsplineEval evaluates the centred cardinal B-spline of one order m ≥ 1
+// in float64 (see BSplineFamily), with its coefficients computed once: the
+// signed binomial coefficients (-1)^j C(m, j) and (m-1)!.
+type bsplineEval struct {
+	m    int
+	c    []float64
+	fact float64
+}
+
+func newBSplineEval(m int) *bsplineEval {
+	b := &bsplineEval{m: m, c: make([]float64, m+1), fact: 1}
+	c := 1.0
+	for j := 0; j <= m; j++ {
+		b.c[j] = c
+		c = -c * float64(m-j) / float64(j+1)
+	}
+	for k := 2; k < m; k++ {
+		b.fact *= float64(k)
+	}
+	return b
+}
+
+// at returns the B-spline at x by the truncated-power formula at -|x|.
+func (b *bsplineEval) at(x float64) float64 {
+	m := b.m
 	half := float64(m) / 2
 	y := -math.Abs(x)
 	if -y > half {
@@ -186,20 +209,14 @@ func bsplineFloat(m int, x float64) float64 {
 		return 1
 	}
 	sum := 0.0
-	c := 1.0
 	for j := 0; j <= m; j++ {
 		t := y + half - float64(j)
 		if t <= 0 {
 			break
 		}
-		sum += c * intPowFloat(t, m-1)
-		c = -c * float64(m-j) / float64(j+1)
+		sum += b.c[j] * intPowFloat(t, m-1)
 	}
-	fact := 1.0
-	for k := 2; k < m; k++ {
-		fact *= float64(k)
-	}
-	return math.Max(sum/fact, 0)
+	return math.Max(sum/b.fact, 0)
 }
 
 // envelopeCenter returns the midpoint of the hull of the centres (widened
