@@ -669,7 +669,7 @@ func (m *planModel) raysCapFree(h, xr, xl float64) bool {
 		return true
 	}
 	d := modelTerms * h
-	return h*(m.rayVal(xr+d, h)+m.rayVal(-xl+d, h)) <= m.remGoal/16
+	return h*m.rayPair(xr+d, -xl+d, h) <= m.remGoal/16
 }
 
 // envFast reports whether every term of an envelope even about its centre
@@ -711,12 +711,12 @@ func envFast(e Envelope, x, h float64, k int) bool {
 // modelTerms pairs when that remainder misses the goal (capped), unless
 // capFree says it cannot.
 func (m *planModel) rayTrunc(h, xr, xl float64, capFree bool) float64 {
-	sum := h * (m.rayVal(xr, h) + m.rayVal(-xl, h))
+	sum := h * m.rayPair(xr, -xl, h)
 	if capFree {
 		return sum
 	}
 	d := modelTerms * h
-	tail := h * (m.rayVal(xr+d, h) + m.rayVal(-xl+d, h))
+	tail := h * m.rayPair(xr+d, -xl+d, h)
 	if tail <= m.remGoal/16 || tail <= 0x1p-64*sum {
 		return sum
 	}
@@ -726,6 +726,16 @@ func (m *planModel) rayTrunc(h, xr, xl float64, capFree bool) float64 {
 	}
 	m.capped = math.Max(m.capped, r)
 	return sum - tail + r
+}
+
+// rayPair returns rayVal(x, h) + rayVal(y, h), summing one ray twice
+// when the window is centred on the centre (x = y).
+func (m *planModel) rayPair(x, y, h float64) float64 {
+	r := m.rayVal(x, h)
+	if y == x {
+		return r + r
+	}
+	return r + m.rayVal(y, h)
 }
 
 // rounding returns the rounding bound of the engine for N samples of step
