@@ -385,6 +385,9 @@ type aliasBlocker interface {
 	// aliasBlock returns an upper bound of Σ_{j=0}^{J-1} |F(x0 + jP)| for
 	// every x0 in the interval, given x0.Lo > 0 and P.Lo > 0, or +Inf.
 	aliasBlock(x0, P Interval, J int64) float64
+	// aliasRay returns an upper bound of Σ_{j≥0} |F(x0 + jP)|, every
+	// copy of the ray, under the same conditions, or +Inf.
+	aliasRay(x0, P Interval) float64
 }
 
 // blockAlias is spectralAlias in abs mode for a family that bounds blocks
@@ -398,6 +401,10 @@ func (s *aliasSummer) blockAlias(bl aliasBlocker, P Interval, F Complex, limit i
 		return Complex{}, Method{}, false
 	}
 	goal := s.goal(0x1p-60 * F.Mag())
+	// Every copy at once, where the ray bound is small enough.
+	if R := addUp(bl.aliasRay(s.xi.Add(P), P), bl.aliasRay(P.Sub(s.xi), P)); R <= goal {
+		return RealC(Interval{0, R}), Method{Side: SpectralSide, Remainder: R, RemainderFrom: "zeros of the transform (closed form)"}, true
+	}
 	enough := func(L int64) bool { return 2*s.spectralEstimate(P, L) <= goal }
 	// The least L ≥ 1 the estimate accepts, by doubling and bisection.
 	hi := int64(1)

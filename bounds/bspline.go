@@ -136,6 +136,54 @@ func (b BSplineFamily) appendSpectral(dst Envelope) Envelope {
 	return append(dst, EnvelopeTerm{Decay: Algebraic, Amplitude: 1, Plateau: 2, Width: 2, Power: float64(b.Order)})
 }
 
+// aliasRay bounds every alias copy along a ray, Σ_{j≥0} |F(x0 + jP)|
+// for every x0 in the interval, by aliasBlock for the first J copies and
+// the envelope |F(ξ)| ≤ (2/|ξ|)^m for the rest:
+//
+//	Σ_{j≥J} (2/(x0 + jP))^m = (2/P)^m Σ_{j≥J} (j + x0/P)^{-m}
+//	                        ≤ (2/P)^m (J - 1 + x0/P)^{1-m} / (m - 1)
+//
+// (the sum of a decreasing function bounded by its integral from J - 1).
+// J is where the two bounds meet, |sin(x0/2)| + Jδ ≈ 1, so at the steps
+// of the partition of unity the whole ray is of the order of the rounding
+// of P (about 1e-16 for the hat function at h = 1), where summing copies
+// until the envelope's remainder is small would need of the order of
+// 1/tol copies for m = 2. It returns +Inf where it does not apply.
+func (b BSplineFamily) aliasRay(x0, P Interval) float64 {
+	m := b.Order
+	if m < 2 || m > MaxBSplineOrder || !(x0.Lo > 0) || !(P.Lo > 0) || !x0.IsFinite() || !P.IsFinite() {
+		return math.Inf(1)
+	}
+	hp := half(P)
+	k := math.Round(hp.Mid() / math.Pi)
+	delta := hp.Sub(Pi.Scale(k)).Mag()
+	a := Sin(half(x0)).Mag()
+	J := int64(1 << 52)
+	if a >= 1 {
+		J = 1
+	} else if delta > 0 {
+		J = int64(math.Min(math.Ceil((1-a)/delta), 0x1p52))
+	}
+	// Away from the zeros (a not small, as for ξ ≠ 0) the first block
+	// costs more than it saves: the envelope from the first copy on
+	// (J = 1) is then the better bound.
+	return math.Min(b.rayFrom(x0, P, J), b.rayFrom(x0, P, 1))
+}
+
+// rayFrom is aliasRay with the block of the first J copies.
+func (b BSplineFamily) rayFrom(x0, P Interval, J int64) float64 {
+	m := b.Order
+	block := b.aliasBlock(x0, P, J)
+	// (J - 1 + x0/P) from below, raised to 1 - m < 0: an upper bound.
+	base := addDown(float64(J-1), divDown(x0.Lo, P.Hi))
+	if !(base > 0) {
+		return math.Inf(1)
+	}
+	inv := divUp(1, base)
+	tail := divUp(mulUp(Point(divUp(2, P.Lo)).IntPow(m).Hi, Point(inv).IntPow(m-1).Hi), float64(m-1))
+	return addUp(block, tail)
+}
+
 // aliasBlock bounds J alias copies of the transform, Σ_{j=0}^{J-1} |F(x0 + jP)|
 // for every x0 in the interval, by their nearness to the zeros of
 // sin(ξ/2). Write P/2 = kπ + δ with k the nearest integer; then

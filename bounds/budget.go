@@ -404,11 +404,51 @@ func (fb *familyBudgeter) summer(g Grid, xi, shift Interval, abs bool, set Setti
 // at bounds the aliasing and truncation for every frequency in xi (a
 // single frequency or a short piece of a band).
 func (fb *familyBudgeter) at(xi Interval) (Budget, error) {
+	var b Budget
+	var err error
+	if b.Aliasing, err = fb.aliasing(xi); err != nil {
+		return Budget{}, err
+	}
+	fb.pieces = 1
+	if !fb.g.Infinite() {
+		if fb.opt.AnyShift || xi.Lo != xi.Hi {
+			t, err := fb.absTruncation()
+			if err != nil {
+				return Budget{}, err
+			}
+			b.Truncation = t
+			fb.pieces = fb.truncPieces
+		} else {
+			st := fb.summer(fb.g, xi, fb.shifts, false, fb.opt.Settings)
+			trunc, _, _, _, err := st.omittedSum(fb.f.Transform(xi).Mag(), truncationCap)
+			if err != nil {
+				return Budget{}, err
+			}
+			b.Truncation = trunc.Mag()
+		}
+	}
+	return b, nil
+}
+
+// aliasing bounds the aliasing |Σ_{l≠0} F(ξ + lP) e^{i2πls/h}| for every
+// frequency in xi and every shift of the range.
+func (fb *familyBudgeter) aliasing(xi Interval) (float64, error) {
 	anyShift := fb.opt.AnyShift
-	wide := xi.Lo != xi.Hi
 	s := fb.summer(fb.g, xi, fb.shifts, anyShift, fb.opt.Settings)
 	F := fb.f.Transform(xi)
 	P := TwoPi.Div(Point(fb.g.Step))
+	// A family that bounds whole rays of copies in closed form (the
+	// B-splines near the zeros of their transform) bounds the aliasing
+	// for every shift at once by Σ_{l≠0} |F(ξ + lP)| (for a fixed shift
+	// too: the phases have modulus 1). Where that meets the
+	// goal it is the answer; elsewhere it may still beat the sums below.
+	ray := math.Inf(1)
+	if bl, ok := fb.f.(aliasBlocker); ok && xi.Mag() < P.Lo {
+		ray = addUp(bl.aliasRay(xi.Add(P), P), bl.aliasRay(P.Sub(xi), P))
+		if ray <= s.goal(0x1p-60*F.Mag()) {
+			return ray, nil
+		}
+	}
 	side := fb.opt.Side
 	limit := int64(math.MaxInt64)
 	if side == AutoSide {
@@ -416,14 +456,17 @@ func (fb *familyBudgeter) at(xi Interval) (Budget, error) {
 		side, L = s.chooseSide(F, P)
 		limit = max(4*L, 64)
 	}
-	var b Budget
+	aliasing := 0.0
 	if side == SpectralSide {
 		alias, _, done, err := s.spectralAlias(P, F, limit)
 		switch {
 		case err != nil && fb.opt.Side == SpectralSide:
-			return Budget{}, err
+			if finite(ray) {
+				return ray, nil // the copies are too many to sum; the ray bound holds
+			}
+			return 0, err
 		case err == nil && done:
-			b.Aliasing = alias.Mag()
+			aliasing = alias.Mag()
 		default:
 			side = SpatialSide // the automatic choice fell short: see AliasSum
 		}
@@ -439,30 +482,12 @@ func (fb *familyBudgeter) at(xi Interval) (Budget, error) {
 			sp := fb.summer(Grid{Step: fb.g.Step}, xi, subinterval(fb.shifts, i, pieces), false, fb.opt.Settings)
 			T, _, err := sp.spatialInfinite(F.Mag())
 			if err != nil {
-				return Budget{}, err
+				return 0, err
 			}
-			b.Aliasing = math.Max(b.Aliasing, T.Sub(F).Mag())
+			aliasing = math.Max(aliasing, T.Sub(F).Mag())
 		}
 	}
-	fb.pieces = 1
-	if !fb.g.Infinite() {
-		if anyShift || wide {
-			t, err := fb.absTruncation()
-			if err != nil {
-				return Budget{}, err
-			}
-			b.Truncation = t
-			fb.pieces = fb.truncPieces
-		} else {
-			st := fb.summer(fb.g, xi, fb.shifts, false, fb.opt.Settings)
-			trunc, _, _, _, err := st.omittedSum(F.Mag(), truncationCap)
-			if err != nil {
-				return Budget{}, err
-			}
-			b.Truncation = trunc.Mag()
-		}
-	}
-	return b, nil
+	return math.Min(aliasing, ray), nil
 }
 
 // truncPieces is the number of subintervals the shift range is cut into

@@ -65,6 +65,11 @@
 // side (decay of |f|) and the spectral side (decay of |F|; compact is a band
 // limit). Tails of infinite sums are bounded in closed form from the
 // envelopes (see EnvelopeTerm and math.md, "Envelopes and their bounds").
+// The B-splines also bound whole rays of alias copies near the zeros of
+// their transform in closed form (BSplineFamily.aliasRay), so that at the
+// steps of their partition of unity (h = 1, 1/2, …) the certified aliasing
+// is of the order of rounding and a plan needs only the samples that cover
+// the support.
 //
 // # Accuracy
 //

@@ -332,7 +332,7 @@ func newPlanner1(ctx context.Context, req PlanRequest) *planner1 {
 	if req.Family != nil {
 		m.val, m.absTr, m.tr = pointEvaluators(req.Family)
 		m.rayVal, m.rayTr = pointRays(req.Family)
-		m.blockTr = pointBlock(req.Family)
+		m.blockTr, m.blockRay = pointBlock(req.Family)
 		m.convexC, m.convexD, m.convex = convexTails(req.Family)
 		switch req.Family.(type) {
 		case GaussianFamily, ExponentialFamily, LorentzianFamily, SechFamily, SechSquaredFamily, BSplineFamily:
@@ -881,56 +881,72 @@ func (p *planner1) roundingFloor(n int64) float64 {
 }
 
 // compactCandidates tries, for a family of compact support of width W,
-// the counts n below best with the steps h = W/n at which n samples span
+// the counts below best with the steps h = W/n at which n intervals span
 // the support (slightly above, so that no sample of the support is
-// omitted for any shift). It returns the least feasible count and its
-// step, or 0.
+// omitted for any shift). By default the count is n; with a fixed shift
+// the samples s + h·k do not sit where a window centred on the support
+// would put them, so the counts n + 1 and n + 2 at the same step are tried
+// as well. It returns the least feasible count and its step, or 0.
 func (p *planner1) compactCandidates(best int64) (int64, float64) {
 	W := p.compactWidth()
 	if W == 0 {
 		return 0, 0
 	}
+	extra := int64(0)
+	if !p.m.anyShift {
+		extra = 2
+	}
 	limit := min(best-1, compactCounts)
-	for n := int64(1); n <= limit; n++ {
-		if !p.req.Cost.Admissible(n) {
+	for c := int64(1); c <= limit; c++ {
+		if !p.req.Cost.Admissible(c) {
 			continue
 		}
-		h := W / float64(n)
-		if h < p.hRes(n) {
-			continue
-		}
-		for _, hh := range [...]float64{h, h * (1 + 0x1p-40), h * (1 + 0x1p-20)} {
-			p.evals++
-			rest := p.m.trunc(hh, n) * weight(p.m.wT)
-			if !p.m.noRound {
-				rest += p.m.rounding(hh, n)
-			}
-			if rest > p.tol {
-				continue
-			}
-			p.m.capped = 0
-			p.m.stopAbove = (p.tol - rest) / weight(p.m.wA)
-			a := p.m.weightedAlias(hh)
-			p.m.stopAbove = 0
-			if a+rest <= p.tol {
-				return n, hh
-			}
-			// The alias sums of such families may vanish at these steps
-			// (the B-splines' partition of unity); then only the
-			// envelope's remainder after the copies summed bounds them,
-			// and more copies may bring it within the tolerance.
-			if p.m.capped == 0 || a-p.m.capped*weight(p.m.wA) > p.tol/2 {
-				continue
-			}
-			p.m.aliasCap = compactAliasTerms
-			a = p.m.weightedAlias(hh)
-			p.m.aliasCap = 0
-			if a+rest <= p.tol {
-				return n, hh
+		for n := c; n >= max(1, c-extra); n-- {
+			if h, ok := p.compactFits(W/float64(n), c); ok {
+				return c, h
 			}
 		}
 	}
 	return 0, 0
+}
+
+// compactFits reports whether c samples at a step at or just above h meet
+// the tolerance in the model, and at which step.
+func (p *planner1) compactFits(h float64, c int64) (float64, bool) {
+	if h < p.hRes(c) {
+		return 0, false
+	}
+	for _, hh := range [...]float64{h, h * (1 + 0x1p-40), h * (1 + 0x1p-20)} {
+		p.evals++
+		rest := p.m.trunc(hh, c) * weight(p.m.wT)
+		if !p.m.noRound {
+			rest += p.m.rounding(hh, c)
+		}
+		if rest > p.tol {
+			continue
+		}
+		p.m.capped = 0
+		p.m.stopAbove = (p.tol - rest) / weight(p.m.wA)
+		a := p.m.weightedAlias(hh)
+		p.m.stopAbove = 0
+		if a+rest <= p.tol {
+			return hh, true
+		}
+		// The alias sums of such families may vanish at these steps
+		// (the B-splines' partition of unity); then only the
+		// envelope's remainder after the copies summed bounds them,
+		// and more copies may bring it within the tolerance.
+		if p.m.capped == 0 || a-p.m.capped*weight(p.m.wA) > p.tol/2 {
+			continue
+		}
+		p.m.aliasCap = compactAliasTerms
+		a = p.m.weightedAlias(hh)
+		p.m.aliasCap = 0
+		if a+rest <= p.tol {
+			return hh, true
+		}
+	}
+	return 0, false
 }
 
 // compactWidth returns the width W of the smallest window centred on the

@@ -26,6 +26,8 @@ type planModel struct {
 	// blockTr bounds J copies of |F| along the ray x0 + jP in float64
 	// (aliasBlocker), for the families that have it; nil otherwise.
 	blockTr func(x0, P float64, J int) float64
+	// blockRay bounds a whole ray of copies of |F| (aliasRay) in float64.
+	blockRay func(x0, P float64) float64
 	// prefix is scratch space for absAlias.
 	prefix []float64
 	// stopAbove, when > 0, lets absAlias return any value above it as soon
@@ -402,6 +404,27 @@ func (m *planModel) alias(h float64) float64 {
 }
 
 func (m *planModel) exactAlias(xi, P, h float64) float64 {
+	if m.blockRay != nil && math.Abs(xi) < P {
+		// As FamilyBudget: the ray bound covers every copy for any
+		// phases; where it meets the goal it is the answer, elsewhere the
+		// smaller of it and the copies summed.
+		R := m.blockRay(P+math.Abs(xi), P) + m.blockRay(P-math.Abs(xi), P)
+		if R <= m.remGoal {
+			return R
+		}
+		capped := m.capped
+		if v := m.exactAliasSummed(xi, P, h); v < R {
+			return v
+		}
+		m.capped = capped
+		return R
+	}
+	return m.exactAliasSummed(xi, P, h)
+}
+
+// exactAliasSummed is exactAlias by the copies, summed or bounded in
+// blocks, with the envelope's remainder.
+func (m *planModel) exactAliasSummed(xi, P, h float64) float64 {
 	fixed := !m.anyShift && !m.wide
 	if !fixed && m.rayTr != nil && math.Abs(xi) <= P {
 		return m.rayAlias(xi, P)

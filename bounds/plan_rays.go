@@ -266,22 +266,43 @@ func lorentzRay(x, h, a float64) float64 {
 	return sum + math.Atan(a/x)/(a*h) + 0.5/(a2+x*x) + em/a
 }
 
-// pointBlock returns the float64 form of a family's aliasBlock, or nil.
-func pointBlock(f Family) func(x0, P float64, J int) float64 {
+// pointBlock returns the float64 forms of a family's aliasBlock and
+// aliasRay, or nil.
+func pointBlock(f Family) (block func(x0, P float64, J int) float64, ray func(x0, P float64) float64) {
 	b, ok := f.(BSplineFamily)
 	if !ok || b.Order < 2 || b.Order > MaxBSplineOrder {
-		return nil
+		return nil, nil
 	}
 	m := b.Order
-	return func(x0, P float64, J int) float64 {
+	// near returns |sin(x0/2)| and δ = |P/2 - kπ|, at least the rounding
+	// of P/2 (the certificate's δ is never below it).
+	near := func(x0, P float64) (a, delta float64) {
+		k := math.Round(P / (2 * math.Pi))
+		return math.Abs(math.Sin(x0 / 2)), math.Max(math.Abs(P/2-k*math.Pi), 0x1p-52*P/2)
+	}
+	block = func(x0, P float64, J int) float64 {
 		if !(x0 > 0) || !(P > 0) || J <= 0 {
 			return math.Inf(1)
 		}
-		k := math.Round(P / (2 * math.Pi))
-		delta := math.Abs(P/2 - k*math.Pi)
-		a := math.Abs(math.Sin(x0 / 2))
+		a, delta := near(x0, P)
 		jm := float64(J - 1)
 		rho := math.Max(a/(x0/2), (a+jm*delta)/((x0+jm*P)/2))
 		return float64(J) * intPowFloat(rho, m)
 	}
+	ray = func(x0, P float64) float64 {
+		if !(x0 > 0) || !(P > 0) {
+			return math.Inf(1)
+		}
+		a, delta := near(x0, P)
+		from := func(J int) float64 {
+			base := float64(J-1) + x0/P
+			return block(x0, P, J) + intPowFloat(2/P, m)*intPowFloat(1/base, m-1)/float64(m-1)
+		}
+		J := 1
+		if a < 1 {
+			J = int(math.Min(math.Ceil((1-a)/delta), 0x1p52))
+		}
+		return math.Min(from(J), from(1))
+	}
+	return block, ray
 }
