@@ -64,6 +64,15 @@ func AliasSum(ctx context.Context, f Family, g Grid, xi float64, set Settings) (
 	if err := checkAliasArgs(f, g, xi, set); err != nil {
 		return SampledSum{}, err
 	}
+	if res, ok := fastAliasSum(ctx, f, g, xi, set); ok {
+		return res, nil
+	}
+	return aliasSumGeneral(ctx, f, g, xi, set)
+}
+
+// aliasSumGeneral is AliasSum by the general path (aliasSummer), for every
+// family, after the arguments have been checked.
+func aliasSumGeneral(ctx context.Context, f Family, g Grid, xi float64, set Settings) (SampledSum, error) {
 	s := newSummer(ctx, f, g, Point(xi), Point(g.Shift), false, set)
 	if err := validateEnvelopes(s.spat, s.spec); err != nil {
 		return SampledSum{}, err
