@@ -178,27 +178,35 @@ func gaussianCopies(C, E0, A, B, u Interval, Fmag float64, limit int64, tol floa
 	}
 	floor := relGoal * Fmag
 	var re, im Interval // Σ of the copies over C times their phases
+	var ph, ph1 Complex // e^{i2πlu} for the copy l summed next, and e^{i2πu}
 	var sumAbs float64  // Σ C·|copies| summed, for the relative goal
 	var first float64
 	for L := int64(0); ; L++ {
 		// cR, cL are the copies L+1 and rR, rL the ratios to copies L+2,
 		// which fall with L: (G) bounds copies L+1, L+2, … on each side.
-		tail := math.Inf(1)
-		switch {
-		case !(rR.Hi < 1 && rL.Hi < 1):
-		case mirror:
-			tail = mulUp(C.Hi, mulUp(2, divUp(cR.Hi, addDown(1, -rR.Hi))))
-		default:
-			tail = mulUp(C.Hi, addUp(divUp(cR.Hi, addDown(1, -rR.Hi)), divUp(cL.Hi, addDown(1, -rL.Hi))))
+		// The tail in float64 first (not a bound); the rigorous bound is
+		// the same expression rounded upward, so it is computed only when
+		// the estimate is near or below the goal.
+		est := math.Inf(1)
+		if rR.Hi < 1 && rL.Hi < 1 {
+			est = C.Hi * (cR.Hi/(1-rR.Hi) + cL.Hi/(1-rL.Hi))
 		}
 		if L == 0 {
-			first = tail
+			first = est
 		}
 		scale := sumAbs
 		if scale == 0 {
 			scale = relGoal * first
 		}
-		goal := math.Max(tol, math.Max(relGoal*math.Max(scale, floor), 0x1p-1022))
+		goal := fmax(tol, fmax(relGoal*fmax(scale, floor), 0x1p-1022))
+		tail := est
+		if est <= 2*goal {
+			if mirror {
+				tail = mulUp(C.Hi, mulUp(2, geomUp(cR.Hi, rR.Hi)))
+			} else {
+				tail = mulUp(C.Hi, addUp(geomUp(cR.Hi, rR.Hi), geomUp(cL.Hi, rL.Hi)))
+			}
+		}
 		if tail <= goal && (L > 0 || tail == 0 || tail <= tol) {
 			sum := Complex{Re: re.Mul(C)}
 			if !mirror && !zeroShift {
@@ -216,9 +224,18 @@ func gaussianCopies(C, E0, A, B, u Interval, Fmag float64, limit int64, tol floa
 			// e^{i2πlu}: reduce lu modulo 1 before multiplying by the
 			// enclosure of 2π. right·e^{iθ} + left·e^{-iθ}
 			// = (right + left)·cos θ + i·(right - left)·sin θ.
-			v := u.Scale(float64(L + 1))
-			v = v.AddFloat(-math.Round(v.Mid()))
-			sin, cos := sinCos(TwoPi.Mul(v))
+			var sin, cos Interval
+			switch L {
+			case 0:
+				ph1 = Cis(TwoPi.Mul(u))
+				ph = ph1
+			case 1:
+				// cos 2θ = 1 - 2 sin²θ, sin 2θ = 2 sinθ cosθ (DLMF 4.21.35, 4.21.36, from memory)
+				ph = Complex{Interval{1, 1}.Sub(ph1.Im.Sqr().Scale(2)), ph1.Im.Mul(ph1.Re).Scale(2)}
+			default:
+				ph = ph.Mul(ph1) // e^{i(l+1)θ} = e^{ilθ}·e^{iθ}
+			}
+			sin, cos = ph.Im, ph.Re
 			if mirror { // the sine parts cancel exactly
 				re = re.Add(cR.Mul(cos).Scale(2))
 			} else {
@@ -235,6 +252,17 @@ func gaussianCopies(C, E0, A, B, u Interval, Fmag float64, limit int64, tol floa
 		cR, cL = cR.Mul(rR), cL.Mul(rL)
 		rR, rL = rR.Mul(q), rL.Mul(q)
 	}
+}
+
+// geomUp returns an upper bound of c/(1 - r), the geometric bound (G) for a
+// leading term c ≥ 0 and ratio bound 0 ≤ r < 1; for r ≤ 1/2 it uses
+// 1/(1 - r) = 1 + r/(1 - r) ≤ 1 + 2r,
+// which saves a division.
+func geomUp(c, r float64) float64 {
+	if r <= 0.5 {
+		return mulUp(c, addUp(1, mulUp(2, r)))
+	}
+	return divUp(c, addDown(1, -r))
 }
 
 // gaussianOmitted returns the truncation part -h Σ_{k omitted} f(x_k)e^{-iξx_k}
@@ -275,13 +303,18 @@ func gaussianOmitted(sigma, c float64, g Grid, xi float64, Fmag float64, budget 
 	var re, im Interval
 	var n int64
 	for {
-		// Rest of each ray by (G), times h.
-		rest := mulUp(h, addUp(divUp(er.Hi, addDown(1, -rr.Hi)), divUp(el.Hi, addDown(1, -rl.Hi))))
-		if !(rr.Hi < 1) || !(rl.Hi < 1) {
-			rest = math.Inf(1)
+		// Rest of each ray by (G), times h: estimated in float64, then
+		// bounded (the same expression rounded upward) when the estimate
+		// is near or below the goal.
+		rest := math.Inf(1)
+		if rr.Hi < 1 && rl.Hi < 1 {
+			rest = h * (er.Hi/(1-rr.Hi) + el.Hi/(1-rl.Hi))
 		}
-		sumMag := hypotUp(re.Mag(), im.Mag())
-		goal := math.Max(tol, math.Max(relGoal*math.Max(mulUp(h, sumMag), floor), 0x1p-1022))
+		sumMag := h * math.Sqrt(re.Mag()*re.Mag()+im.Mag()*im.Mag()) // |sum|, for the goal only
+		goal := fmax(tol, fmax(relGoal*fmax(sumMag, floor), 0x1p-1022))
+		if rest <= 2*goal {
+			rest = mulUp(h, addUp(geomUp(er.Hi, rr.Hi), geomUp(el.Hi, rl.Hi)))
+		}
 		if rest <= goal && (n > 0 || rest == 0 || rest <= tol) {
 			sum := Complex{re.Scale(-h), im.Scale(-h)}.Inflate(rest)
 			return sum, n, rest, true
