@@ -73,7 +73,11 @@ func AliasSum(ctx context.Context, f Family, g Grid, xi float64, set Settings) (
 // aliasSumGeneral is AliasSum by the general path (aliasSummer), for every
 // family, after the arguments have been checked.
 func aliasSumGeneral(ctx context.Context, f Family, g Grid, xi float64, set Settings) (SampledSum, error) {
-	s := newSummer(ctx, f, g, Point(xi), Point(g.Shift), false, set)
+	// The envelopes are built once, into one slice for a catalogue family.
+	// (The summer passes its family to interface calls, so escape analysis
+	// cannot keep what the summer points to on the stack.)
+	spat, spec := envelopesOf(f)
+	s := newSummerEnv(ctx, f, g, Point(xi), Point(g.Shift), false, set, spat, spec)
 	if err := validateEnvelopes(s.spat, s.spec); err != nil {
 		return SampledSum{}, err
 	}
@@ -123,8 +127,13 @@ type aliasSummer struct {
 
 // newSummer returns a summer for f on g at frequencies xi and shifts shift.
 func newSummer(ctx context.Context, f Family, g Grid, xi, shift Interval, abs bool, set Settings) aliasSummer {
+	return newSummerEnv(ctx, f, g, xi, shift, abs, set, f.Spatial(), f.Spectral())
+}
+
+// newSummerEnv is newSummer with f's envelopes given by the caller.
+func newSummerEnv(ctx context.Context, f Family, g Grid, xi, shift Interval, abs bool, set Settings, spat, spec Envelope) aliasSummer {
 	return aliasSummer{ctx: ctx, f: f, g: g, xi: xi, shift: shift, abs: abs, set: set,
-		spec: f.Spectral(), spat: f.Spatial()}
+		spec: spec, spat: spat}
 }
 
 // at encloses the sample positions s + h·k for every s in the shift.
