@@ -191,16 +191,88 @@ func shiftTerms(e Envelope, c float64) {
 // zero) unless an amplitude 0 multiplies it away, which is then harmless; so
 // the nodes' own envelopes are examined only to name the first node that
 // fails.
+//
+// A valid tree, the common case, is recognised first by composedValid,
+// which builds no parameter paths (they cost allocations on every call).
 func validateRoot(f composite) error {
+	ff := f.(Family)
+	if _, ok := composedValid(ff, 1); ok && envelopesInRange(ff) {
+		return nil
+	}
 	nodes := 1
 	if err := f.validateNode("", &nodes); err != nil {
 		return err
 	}
-	ff := f.(Family)
 	if envelopesInRange(ff) {
 		return nil
 	}
 	return locateEnvelopeFailure(ff, "")
+}
+
+// composedValid reports whether the node f (counted in nodes) and the
+// families below it pass the checks of validateNode and validateChild, and
+// returns the number of nodes counted so far. It mirrors them without
+// naming parameters; validateRoot runs them for the message when it fails.
+func composedValid(f Family, nodes int) (int, bool) {
+	var one [1]Family
+	var children []Family
+	switch g := f.(type) {
+	case AmplitudeFamily:
+		if !finite(g.Re) || !finite(g.Im) {
+			return nodes, false
+		}
+		one[0] = g.Of
+		children = one[:]
+	case ShiftFamily:
+		if !finite(g.By) {
+			return nodes, false
+		}
+		one[0] = g.Of
+		children = one[:]
+	case DilationFamily:
+		if !finite(g.By) || g.By == 0 {
+			return nodes, false
+		}
+		one[0] = g.Of
+		children = one[:]
+	case ModulationFamily:
+		if !finite(g.Omega0) {
+			return nodes, false
+		}
+		one[0] = g.Of
+		children = one[:]
+	case SumFamily:
+		if len(g.Terms) == 0 {
+			return nodes, false
+		}
+		children = g.Terms
+	default:
+		return nodes, false
+	}
+	for _, c := range children {
+		if c == nil {
+			return nodes, false
+		}
+		nodes++
+		if nodes > MaxComposeNodes {
+			return nodes, false
+		}
+		if _, ok := c.(composite); ok {
+			var ok bool
+			if nodes, ok = composedValid(c, nodes); !ok {
+				return nodes, false
+			}
+			continue
+		}
+		// validateLeaf: the family's own checks and its envelopes.
+		if v, ok := c.(Validator); ok && v.Validate() != nil {
+			return nodes, false
+		}
+		if !envelopesInRange(c) {
+			return nodes, false
+		}
+	}
+	return nodes, true
 }
 
 // locateEnvelopeFailure returns the error of the deepest composition node
