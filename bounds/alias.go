@@ -61,23 +61,33 @@ type Method struct {
 // settings: a *ParamError names the field), ErrWorkLimit (more terms than
 // set.MaxTerms), ErrNotFinite, or the context's error.
 func AliasSum(ctx context.Context, f Family, g Grid, xi float64, set Settings) (SampledSum, error) {
-	if err := checkAliasArgs(f, g, xi, set); err != nil {
+	env, err := checkAliasArgsEnv(f, g, xi, set)
+	if err != nil {
 		return SampledSum{}, err
 	}
 	if res, ok := fastAliasSum(ctx, f, g, xi, set); ok {
 		return res, nil
 	}
-	return aliasSumGeneral(ctx, f, g, xi, set)
+	return aliasSumGeneral(ctx, f, g, xi, set, env)
+}
+
+// familyEnvelopes holds a family's envelopes once built (ok).
+type familyEnvelopes struct {
+	spat, spec Envelope
+	ok         bool
 }
 
 // aliasSumGeneral is AliasSum by the general path (aliasSummer), for every
-// family, after the arguments have been checked.
-func aliasSumGeneral(ctx context.Context, f Family, g Grid, xi float64, set Settings) (SampledSum, error) {
+// family, after the arguments have been checked; env are f's envelopes if
+// the check built them.
+func aliasSumGeneral(ctx context.Context, f Family, g Grid, xi float64, set Settings, env familyEnvelopes) (SampledSum, error) {
 	// The envelopes are built once, into one slice for a catalogue family.
 	// (The summer passes its family to interface calls, so escape analysis
 	// cannot keep what the summer points to on the stack.)
-	spat, spec := envelopesOf(f)
-	s := newSummerEnv(ctx, f, g, Point(xi), Point(g.Shift), false, set, spat, spec)
+	if !env.ok {
+		env.spat, env.spec = envelopesOf(f)
+	}
+	s := newSummerEnv(ctx, f, g, Point(xi), Point(g.Shift), false, set, env.spat, env.spec)
 	if err := validateEnvelopes(s.spat, s.spec); err != nil {
 		return SampledSum{}, err
 	}
@@ -91,17 +101,37 @@ func aliasSumGeneral(ctx context.Context, f Family, g Grid, xi float64, set Sett
 	return res, nil
 }
 
+// checkAliasArgs checks the arguments of AliasSum.
 func checkAliasArgs(f Family, g Grid, xi float64, set Settings) error {
-	if err := validateParams(f); err != nil {
-		return err
+	_, err := checkAliasArgsEnv(f, g, xi, set)
+	return err
+}
+
+// checkAliasArgsEnv is checkAliasArgs that also returns a composed family's
+// envelopes, which its validation needs: they are built once.
+func checkAliasArgsEnv(f Family, g Grid, xi float64, set Settings) (familyEnvelopes, error) {
+	var env familyEnvelopes
+	if _, ok := f.(composite); ok {
+		// Validate would build the envelopes of the whole tree for its
+		// range check, and the sum again: check them once here, and take
+		// the path-naming validation only if something is wrong.
+		if _, valid := composedValid(f, 1); valid {
+			env.spat, env.spec = envelopesOf(f)
+			env.ok = envelopeInRange(env.spat) && envelopeInRange(env.spec)
+		}
+	}
+	if !env.ok {
+		if err := validateParams(f); err != nil {
+			return env, err
+		}
 	}
 	if err := g.Validate("grid"); err != nil {
-		return err
+		return env, err
 	}
 	if !finite(xi) {
-		return invalidf("xi", "must be finite, got %g", xi)
+		return env, invalidf("xi", "must be finite, got %g", xi)
 	}
-	return set.Validate()
+	return env, set.Validate()
 }
 
 // aliasSummer holds the state of one alias-sum computation. The frequency

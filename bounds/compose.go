@@ -139,7 +139,8 @@ func envelopesOf(f Family) (spatial, spectral Envelope) {
 	var buf [envelopeStack]EnvelopeTerm
 	sp, ok := appendLeafSpatial(buf[:0], f)
 	if !ok {
-		return appendSpatial(make(Envelope, 0, 4), f), appendSpectral(make(Envelope, 0, 4), f)
+		heap := make(Envelope, 8)
+		return appendSpatial(heap[:0:4], f), appendSpectral(heap[4:4], f)
 	}
 	sc, _ := appendLeafSpectral(sp, f)
 	both := make(Envelope, len(sc))

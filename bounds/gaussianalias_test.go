@@ -147,7 +147,7 @@ func TestGaussianFastPathContainsBigSum(t *testing.T) {
 		}
 
 		for _, side := range []Side{SpectralSide, SpatialSide} {
-			gen, err := aliasSumGeneral(ctx, f, g, tt.xi, Settings{Side: side})
+			gen, err := aliasSumGeneral(ctx, f, g, tt.xi, Settings{Side: side}, familyEnvelopes{})
 			if err != nil {
 				continue // the general path may refuse a side (work limit)
 			}
@@ -200,7 +200,7 @@ func TestGaussianFastPathMatchesGeneral(t *testing.T) {
 			continue
 		}
 		taken++
-		gen, err := aliasSumGeneral(ctx, f, g, xi, Settings{})
+		gen, err := aliasSumGeneral(ctx, f, g, xi, Settings{}, familyEnvelopes{})
 		if err != nil {
 			t.Fatalf("%v h=%g s=%g ξ=%g N=%d: %v", f, h, s, xi, n, err)
 		}
