@@ -20,22 +20,53 @@ const seriesRadius = 1
 // z ⊆ [-1, 1]. S(x²) = sinh(x)/x and S(-x²) = sin(x)/x (DLMF 4.33.1 and
 // 4.19.1, the Maclaurin series of sinh and sin, from memory).
 //
-// Truncation after the term t_n: the ratio of consecutive terms is at most
-// |z|/((2n+2)(2n+3)) ≤ 1/2, so the remainder is at most 2|t_n|.
+// With m = max|z|, the first n terms are summed, n the least with
+// t_n = m^n/(2n+1)! < 2⁻⁶⁰; the ratio of consecutive terms is at most
+// m/((2n+2)(2n+3)) ≤ 1/2, so the rest is at most R = 2t_n. The polynomial
+// P(z) = Σ_{k<n} z^k/(2k+1)! is evaluated by Horner's rule with directed
+// rounding at z.Lo, which gives both bounds of P(z.Lo). S and P increase
+// on [-1, 1] (their derivatives are at least 1/6 - Σ_{k≥2} k/(2k+1)! > 0)
+// and S' ≤ Σ_{k≥1} k/(2k+1)! < 1/5 there, so
+//
+//	S(z) ⊆ [P(z.Lo) - R, P(z.Lo) + (z.Hi - z.Lo)/5 + R].
 func sinhcPowerSeries(z Interval) Interval {
-	sum := Point(1)
-	t := Point(1)
-	for k := 0; k < 30; k++ { // 10 terms suffice for |z| ≤ 1
-		t = t.Mul(z).Div(Point(float64((2*k + 2) * (2*k + 3))))
-		m := t.Mag()
-		if m < 0x1p-60 {
-			r := mulUp(2, m)
-			return sum.Add(Interval{-r, r})
-		}
-		sum = sum.Add(t)
+	m := fmax(math.Abs(z.Lo), math.Abs(z.Hi))
+	if !(m <= 1) {
+		return entire // z outside [-1, 1] or NaN: not reached from this file
 	}
-	return entire // z outside [-1, 1] or NaN: not reached from this file
+	// n and the rest R = 2·m^n·c_n, rounded up.
+	n := 1
+	pw := m // m^n, rounded up
+	for n < len(sinhcCoef)-1 && mulUp(pw, sinhcCoef[n].Hi) >= 0x1p-60 {
+		n++
+		pw = mulUp(pw, m)
+	}
+	rest := mulUp(2, mulUp(pw, sinhcCoef[n].Hi))
+	x := z.Lo
+	lo, hi := sinhcCoef[n-1].Lo, sinhcCoef[n-1].Hi
+	for k := n - 2; k >= 0; k-- {
+		c := sinhcCoef[k]
+		if x >= 0 {
+			lo, hi = addDown(c.Lo, mulDown(x, lo)), addUp(c.Hi, mulUp(x, hi))
+		} else {
+			lo, hi = addDown(c.Lo, mulDown(x, hi)), addUp(c.Hi, mulUp(x, lo))
+		}
+	}
+	if w := addUp(z.Hi, -z.Lo); w > 0 {
+		hi = addUp(hi, mulUp(w, 0.2))
+	}
+	return Interval{addDown(lo, -rest), addUp(hi, rest)}
 }
+
+// sinhcCoef[k] encloses 1/(2k+1)!, for k up to the last term
+// sinhcPowerSeries can need at |z| = 1 (1/21! < 2⁻⁶⁰ ≤ 1/19!).
+var sinhcCoef = func() (c [11]Interval) {
+	c[0] = Point(1)
+	for k := 1; k < len(c); k++ {
+		c[k] = c[k-1].Div(Point(float64((2 * k) * (2*k + 1))))
+	}
+	return c
+}()
 
 // sinhcPoint encloses sinh(v)/v at a point (1 at 0).
 func sinhcPoint(v float64) Interval {
