@@ -456,7 +456,8 @@ func (t EnvelopeTerm) estimate(d, h float64) float64 {
 		}
 		a := 1 + d/t.Width
 		c := h / t.Width
-		return A * (math.Pow(a, -t.Power) + math.Pow(a, 1-t.Power)/(c*(t.Power-1)))
+		// a^{-q} + a^{1-q}/(c(q-1)) with one power.
+		return A * powNegEstimate(a, t.Power) * (1 + a/(c*(t.Power-1)))
 	case Compact:
 		if d > t.Width {
 			return 0
@@ -464,6 +465,20 @@ func (t EnvelopeTerm) estimate(d, h float64) float64 {
 		return A * (math.Floor((t.Width-d)/h) + 1)
 	}
 	return math.Inf(1)
+}
+
+// powNegEstimate returns a^{-q} in float64 for a ≥ 1, q > 0 (not a bound):
+// by repeated multiplication for small integer q (the B-spline orders),
+// math.Pow otherwise.
+func powNegEstimate(a, q float64) float64 {
+	if q == math.Trunc(q) && q <= 16 {
+		r := 1.0
+		for range int(q) {
+			r *= a
+		}
+		return 1 / r
+	}
+	return math.Pow(a, -q)
 }
 
 // RayEstimate approximates RayTail at the midpoint of x0, in float64; it is

@@ -189,6 +189,21 @@ func (x Interval) Scale(v float64) Interval {
 	return entire
 }
 
+// scale2 returns k·x for k = ±2^j (as 0.5, -0.5, 2): exact, with no
+// rounding to direct, unless an endpoint is subnormal-small or the product
+// overflows; then it is Scale.
+func (x Interval) scale2(k float64) Interval {
+	lo, hi := x.Lo*k, x.Hi*k
+	if k < 0 {
+		lo, hi = hi, lo
+	}
+	if (x.Lo == 0 || math.Abs(x.Lo) >= 0x1p-1020) && (x.Hi == 0 || math.Abs(x.Hi) >= 0x1p-1020) &&
+		math.Abs(lo) <= math.MaxFloat64 && math.Abs(hi) <= math.MaxFloat64 {
+		return Interval{lo, hi}
+	}
+	return x.Scale(k)
+}
+
 // Sqr returns {v² : v in x}, tighter than x.Mul(x) when x contains 0.
 func (x Interval) Sqr() Interval {
 	a := x.Abs()

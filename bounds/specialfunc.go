@@ -84,6 +84,9 @@ func sinhcPoint(v float64) Interval {
 // The series is used for |x| ≤ 1, sinh(x)/x in interval arithmetic beyond.
 func Sinhc(x Interval) Interval {
 	a := x.Abs()
+	if a.Lo == a.Hi {
+		return sinhcPoint(a.Lo)
+	}
 	return Interval{sinhcPoint(a.Lo).Lo, sinhcPoint(a.Hi).Hi}
 }
 
@@ -117,7 +120,10 @@ func Sinc(x Interval) Interval {
 	a := x.Abs()
 	var r Interval
 	have := false
-	if a.Lo <= sincFirstMin {
+	switch {
+	case a.Lo == a.Hi && a.Lo <= sincFirstMin:
+		return sincPoint(a.Lo)
+	case a.Lo <= sincFirstMin:
 		r = Interval{sincPoint(fmin(a.Hi, sincFirstMin)).Lo, sincPoint(a.Lo).Hi}
 		have = true
 	}
@@ -164,6 +170,9 @@ func xOverSinhPoint(v float64) Interval {
 // 2|x| e^(-|x|)/(1 - e^(-2|x|)) beyond, which does not overflow.
 func XOverSinh(x Interval) Interval {
 	a := x.Abs()
+	if a.Lo == a.Hi {
+		return xOverSinhPoint(a.Lo)
+	}
 	return Interval{xOverSinhPoint(a.Hi).Lo, xOverSinhPoint(a.Lo).Hi}
 }
 
