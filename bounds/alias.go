@@ -367,12 +367,11 @@ func (s *aliasSummer) chooseSide(F Complex, P Interval) (Side, int64) {
 func (s *aliasSummer) spectralTail(P Interval, L int64) float64 {
 	spec := s.spec
 	next := P.Scale(float64(L + 1))
-	right := spec.RayTail(s.xi.Add(next), 1, P.Lo)
 	if s.xi.Lo == 0 && s.xi.Hi == 0 && spec.centred() {
 		// At ξ = 0 an envelope centred at 0 sees both rays alike.
-		return mulUp(2, right)
+		return mulUp(2, spec.RayTail(s.xi.Add(next), 1, P.Lo))
 	}
-	return addUp(right, spec.RayTail(s.xi.Sub(next), -1, P.Lo))
+	return spec.rayTails(s.xi.Add(next), s.xi.Sub(next), P.Lo)
 }
 
 // firstCopies returns spectralEstimate(P, 0), computed once per summer.
@@ -556,10 +555,15 @@ func (s *aliasSummer) spectralAlias(P Interval, F Complex, limit int64) (Complex
 			v := u.Scale(float64(L))
 			v = v.AddFloat(-math.Round(v.Mid()))
 			ph := Cis(TwoPi.Mul(v))
-			if mirror {
+			switch {
+			case mirror:
 				// F e^{iθ} + F e^{-iθ} = 2F cos θ.
 				sum = sum.Add(right.MulReal(ph.Re.Scale(2)))
-			} else {
+			case right.Im == Interval{} && left.Im == Interval{}:
+				// Real copies (even real f): R e^{iθ} + L e^{-iθ}
+				// = (R + L) cos θ + i (R - L) sin θ.
+				sum = sum.Add(Complex{right.Re.Add(left.Re).Mul(ph.Re), right.Re.Sub(left.Re).Mul(ph.Im)})
+			default:
 				sum = sum.Add(right.Mul(ph)).Add(left.Mul(ph.Conj()))
 			}
 		}

@@ -394,6 +394,26 @@ func (e Envelope) RayTail(x0 Interval, dir int, h float64) float64 {
 	return s
 }
 
+// rayTails is RayTail(right, 1, h) + RayTail(left, -1, h), rounded up. An
+// exponential term whose two rays both start beyond its plateau, the usual
+// case, shares the denominator 1 - e^{-αh} of rayFrom between them.
+func (e Envelope) rayTails(right, left Interval, h float64) float64 {
+	s := 0.0
+	for _, t := range e {
+		dR := addDown(right.AddFloat(-t.Center).Lo, -t.Plateau)
+		dL := addDown(left.AddFloat(-t.Center).Neg().Lo, -t.Plateau)
+		if t.Decay == Exponential && dR >= h && dL >= h && t.Amplitude > 0 {
+			// A·(e^{-α dR} + e^{-α dL})/(1 - e^{-αh}), as rayFrom.
+			num := Exp(Point(dR).Scale(-t.Rate)).Add(Exp(Point(dL).Scale(-t.Rate)))
+			den := Expm1(Point(h).Scale(-t.Rate)).Neg()
+			s = addUp(s, mulUp(t.Amplitude, num.Div(den).Hi))
+			continue
+		}
+		s = addUp(s, addUp(t.tail(right.AddFloat(-t.Center).Lo, h), t.tail(left.AddFloat(-t.Center).Neg().Lo, h)))
+	}
+	return s
+}
+
 // LatticeSum returns an upper bound on Σ_{k∈Z} env(x0 + k·h) valid for
 // every x0 in the interval.
 func (e Envelope) LatticeSum(x0 Interval, h float64) float64 {

@@ -34,14 +34,12 @@ func sinhcPowerSeries(z Interval) Interval {
 	if !(m <= 1) {
 		return entire // z outside [-1, 1] or NaN: not reached from this file
 	}
-	// n and the rest R = 2·m^n·c_n, rounded up.
+	// The least n with m ≤ sinhcReach[n], so that t_n < 2⁻⁶⁰ and R ≤ 2⁻⁵⁹.
 	n := 1
-	pw := m // m^n, rounded up
-	for n < len(sinhcCoef)-1 && mulUp(pw, sinhcCoef[n].Hi) >= 0x1p-60 {
+	for m > sinhcReach[n] {
 		n++
-		pw = mulUp(pw, m)
 	}
-	rest := mulUp(2, mulUp(pw, sinhcCoef[n].Hi))
+	const rest = 0x1p-59
 	x := z.Lo
 	lo, hi := sinhcCoef[n-1].Lo, sinhcCoef[n-1].Hi
 	for k := n - 2; k >= 0; k-- {
@@ -57,6 +55,26 @@ func sinhcPowerSeries(z Interval) Interval {
 	}
 	return Interval{addDown(lo, -rest), addUp(hi, rest)}
 }
+
+// sinhcReach[n] is a float64 r ≤ 1 with r^n/(2n+1)! < 2⁻⁶⁰, checked in
+// directed rounding; sinhcReach[10] = 1 (1/21! < 2⁻⁶⁰).
+var sinhcReach = func() (r [len(sinhcCoef)]float64) {
+	below := func(m float64, n int) bool { // m^n·c_n < 2⁻⁶⁰, rounded up
+		p := sinhcCoef[n].Hi
+		for range n {
+			p = mulUp(p, m)
+		}
+		return p < 0x1p-60
+	}
+	for n := 1; n < len(r); n++ {
+		m := math.Min(1, math.Exp((math.Log(0x1p-60)-math.Log(sinhcCoef[n].Hi))/float64(n)))
+		for !below(m, n) {
+			m *= 1 - 0x1p-20
+		}
+		r[n] = m
+	}
+	return r
+}()
 
 // sinhcCoef[k] encloses 1/(2k+1)!, for k up to the last term
 // sinhcPowerSeries can need at |z| = 1 (1/21! < 2⁻⁶⁰ ≤ 1/19!).
