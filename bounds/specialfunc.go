@@ -252,7 +252,27 @@ func besselI0Bounds(a float64) (lo, hi float64) {
 // besselI0Quarter bounds I₀ given q = a²/4 in [qLo, qHi], qLo ≥ 0: the
 // series of besselI0Bounds in q, for callers (the Kaiser-Bessel window)
 // that can form q without squaring a root.
+//
+// Up to q = besselI0Reach[len-1] (about 560, a ≈ 47) a polynomial of
+// tabulated length is evaluated instead, by Horner's rule: n is the least
+// with qHi ≤ besselI0Reach[n], so that t_n = q^n/(n!)² < 2⁻⁶⁰ and the ratio
+// of later terms is at most q/(n+1)² ≤ 1/2; the rest is then below
+// 2·t_n < 2⁻⁵⁹ ≤ 2⁻⁵⁹·I₀. All coefficients are positive and q ≥ 0, so the
+// lower bound is Horner's rule at qLo rounded down and the upper bound at
+// qHi rounded up.
 func besselI0Quarter(qLo, qHi float64) (lo, hi float64) {
+	if qHi <= besselI0Reach[len(besselI0Reach)-1] {
+		n := 1
+		for qHi > besselI0Reach[n] {
+			n++
+		}
+		lo, hi = besselI0Coef[n-1].Lo, besselI0Coef[n-1].Hi
+		for k := n - 2; k >= 0; k-- {
+			lo = addDown(besselI0Coef[k].Lo, mulDown(qLo, lo))
+			hi = addUp(besselI0Coef[k].Hi, mulUp(qHi, hi))
+		}
+		return lo, addUp(hi, 0x1p-59)
+	}
 	tLo, tHi := 1.0, 1.0
 	lo, hi = 1, 1
 	// a ≤ 715 needs fewer than 600 terms; the cap only guards the loop.
@@ -275,6 +295,35 @@ func besselI0Quarter(qLo, qHi float64) (lo, hi float64) {
 	}
 	return lo, math.Inf(1)
 }
+
+// besselI0Coef[k] encloses 1/(k!)², the coefficient of q^k in I₀.
+var besselI0Coef = func() (c [81]Interval) {
+	c[0] = Point(1)
+	for k := 1; k < len(c); k++ {
+		c[k] = c[k-1].Div(Point(float64(k * k)))
+	}
+	return c
+}()
+
+// besselI0Reach[n] is a float64 r with r^n/(n!)² < 2⁻⁶⁰ and r ≤ (n+1)²/2,
+// checked in directed rounding (besselI0Reach[0] = 0).
+var besselI0Reach = func() (r [len(besselI0Coef)]float64) {
+	below := func(q float64, n int) bool { // q^n·c_n < 2⁻⁶⁰, rounded up
+		p := besselI0Coef[n].Hi
+		for range n {
+			p = mulUp(p, q)
+		}
+		return p < 0x1p-60
+	}
+	for n := 1; n < len(r); n++ {
+		q := math.Min(float64((n+1)*(n+1))/2, math.Exp((math.Log(0x1p-60)-math.Log(besselI0Coef[n].Hi))/float64(n)))
+		for !below(q, n) {
+			q *= 1 - 0x1p-20
+		}
+		r[n] = q
+	}
+	return r
+}()
 
 // BesselI0 returns the modified Bessel function of the first kind of order
 // zero (even, increasing in |x|, I₀(0) = 1), which normalizes the
