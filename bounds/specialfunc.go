@@ -337,7 +337,11 @@ var besselI0Reach = func() (r [len(besselI0Coef)]float64) {
 // result is [MaxFloat64, +Inf].
 func BesselI0(x Interval) Interval {
 	a := x.Abs()
-	lo, _ := besselI0Bounds(a.Lo)
-	_, hi := besselI0Bounds(a.Hi)
+	if !(a.Hi <= besselI0Overflow) { // also NaN
+		lo, _ := besselI0Bounds(a.Lo)
+		return Interval{lo, math.Inf(1)}
+	}
+	// One series: its lower bound at a.Lo, its upper bound at a.Hi.
+	lo, hi := besselI0Quarter(mulDown(mulDown(a.Lo, a.Lo), 0.25), mulUp(mulUp(a.Hi, a.Hi), 0.25))
 	return Interval{lo, hi}
 }
