@@ -7,10 +7,12 @@ import (
 
 // A dedicated path of AliasSum for the Gaussian f(x) = exp(-(x-c)²/(2σ²))
 // (GaussianFamily, c = 0, and the factors of RadialGaussian). It sums the
-// same series as the general path, with the same goals and the same Method,
-// but evaluates the terms of each series by a ratio recurrence instead of
-// one interval exponential per term, bounds the tails by the geometric
-// series of the recurrence, and needs no envelopes.
+// same series as the general path, to the same goals, but evaluates the
+// terms of each series by a ratio recurrence instead of one interval
+// exponential per term, bounds the tails by the geometric series of the
+// recurrence, and needs no envelopes. Its tail bound is at least as tight
+// as the envelope's, so it may stop one copy earlier; Method reports what
+// it summed.
 //
 // The recurrence. For reals y and δ > 0 let e_j = exp(-(y + jδ)²/2). Then
 //
@@ -27,15 +29,14 @@ import (
 //
 // Spectral side (the alias part). With a = σξ and b = σP, P = 2π/h, the
 // copies are F(ξ ± lP) = C·exp(-(lb ± a)²/2), C = σ√(2π) (math.md,
-// catalogue). For |a| ≤ b/2 every copy l ≥ 1 lies at lb ± a ≥ (l - 1/2)b > 0,
-// and the ratio after copy L+1 is exp(-b(L+1)b ∓ ab - b²/2) ≤ exp(-(L+1)b²),
-// so (G) bounds the copies beyond L on each side by
-//
-//	Σ_{l>L} F(ξ ± lP) ≤ C·exp(-((L+1)b ± a)²/2) / (1 - q^{L+1}),   q = exp(-b²).
-//
-// The copies are evaluated directly (one exponential each, as tight as a
-// single evaluation); the recurrence serves the tail bound only.
-//
+// catalogue): the recurrence with y = ±a + b, δ = b, starting from copy 1.
+// For |a| ≤ b/2 every copy l ≥ 1 lies at lb ± a ≥ (l - 1/2)b > 0, and the
+// ratio from copy L+1 to copy L+2, exp(-b((L+1)b ± a) - b²/2), is at most
+// exp(-(L+1)b²) < 1, so (G) bounds the copies beyond L on each side by
+// copy L+1 over one minus that ratio, both carried by the recurrence.
+// The phases e^{±i2πlu}, u = (s-c)/h, are e^{i2πu} (one sine and cosine),
+// its square by the double-angle formulas, and products beyond.
+
 // Spatial side (the truncation part of a finite grid). The omitted samples
 // to the right of the grid are at normalised distances y_j = y_0 + jδ from
 // the centre, y_0 = (x_{hi+1} - c)/σ > 0, δ = h/σ, and those to the left
