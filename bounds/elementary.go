@@ -457,8 +457,20 @@ func Tanh(x Interval) Interval {
 }
 
 // Sech returns sech x = 1/cosh x (even, decreasing in |x|, 1 at 0).
+//
+// A thin interval (width d ≤ 2⁻⁴⁰, a point computed in interval
+// arithmetic) takes one evaluation, at a.Lo: sech
+// decreases on [0, ∞) with |d ln sech/dx| = tanh x ≤ 1, so
+// sech(a.Hi) ≥ sech(a.Lo)·e^{-d} ≥ sech(a.Lo)·(1 - d).
 func Sech(x Interval) Interval {
 	a := x.Abs()
+	if d := addUp(a.Hi, -a.Lo); d <= 0x1p-40 {
+		lo, hi := sechBounds(a.Lo)
+		if d > 0 {
+			lo = mulDown(lo, addDown(1, -d))
+		}
+		return Interval{lo, hi}
+	}
 	_, hi := sechBounds(a.Lo)
 	lo, _ := sechBounds(a.Hi)
 	return Interval{lo, hi}

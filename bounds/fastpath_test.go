@@ -72,3 +72,37 @@ func overlaps(a, b Complex) bool {
 	_, im := a.Im.Intersect(b.Im)
 	return re && im
 }
+
+// TestSechXOverSinhThin checks the one-evaluation path of Sech and
+// XOverSinh for thin intervals (width ≤ 2⁻⁴⁰) against sech and x/sinh x in
+// math/big at both ends, on both signs and across the range where the
+// series, the closed forms and the underflowing tails are used.
+func TestSechXOverSinhThin(t *testing.T) {
+	for _, lo := range []float64{0, 1e-300, 0.01, 0.3, 0.99, 1, 1.01, 3.7, 20, 354.5, 699, 701, 745, 1500} {
+		for _, d := range []float64{0x1p-60, 1e-14, 3e-13, 0x1p-40} {
+			for _, sign := range []float64{1, -1} {
+				x := Interval{lo, lo + d*math.Max(1, lo)}
+				if x.Hi-x.Lo > 0x1p-40 {
+					continue
+				}
+				if sign < 0 {
+					x = x.Neg()
+				}
+				gs, gx := Sech(x), XOverSinh(x)
+				for _, v := range []float64{x.Lo, x.Hi} {
+					bv := bigref.New(v)
+					if want := bigref.Sech(bv); !bigref.In(gs.Lo, gs.Hi, want) {
+						t.Errorf("Sech(%v) = %v does not contain sech(%g) = %.17g", x, gs, v, bigref.Float64(want))
+					}
+					want := bigref.Int(1) // x/sinh x at 0
+					if v != 0 {
+						want = bigref.Quo(bv, bigref.Sinh(bv))
+					}
+					if !bigref.In(gx.Lo, gx.Hi, want) {
+						t.Errorf("XOverSinh(%v) = %v does not contain %g/sinh(%g) = %.17g", x, gx, v, v, bigref.Float64(want))
+					}
+				}
+			}
+		}
+	}
+}

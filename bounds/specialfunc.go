@@ -186,10 +186,20 @@ func xOverSinhPoint(v float64) Interval {
 // |x|; the transform of sech² is πξ/2 / sinh(πξ/2) times 2). It is
 // 1/Sinhc(x), evaluated by the series of Sinhc for |x| ≤ 1 and as
 // 2|x| e^(-|x|)/(1 - e^(-2|x|)) beyond, which does not overflow.
+//
+// A thin interval (width d ≤ 2⁻⁴⁰, a point computed in interval
+// arithmetic) takes one evaluation, at a.Lo: on
+// (0, ∞), d ln(x/sinh x)/dx = 1/x - coth x lies in (-1, 0) (the Langevin
+// function coth x - 1/x is between 0 and 1), so the value at a.Hi is at
+// least the value at a.Lo times e^{-d} ≥ 1 - d.
 func XOverSinh(x Interval) Interval {
 	a := x.Abs()
-	if a.Lo == a.Hi {
-		return xOverSinhPoint(a.Lo)
+	if d := addUp(a.Hi, -a.Lo); d <= 0x1p-40 {
+		v := xOverSinhPoint(a.Lo)
+		if d > 0 {
+			v.Lo = mulDown(v.Lo, addDown(1, -d))
+		}
+		return v
 	}
 	return Interval{xOverSinhPoint(a.Hi).Lo, xOverSinhPoint(a.Lo).Hi}
 }
