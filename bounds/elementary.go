@@ -365,6 +365,26 @@ func sinCosThin(m, r float64) (sin, cos Interval) {
 	return sin, cos
 }
 
+// cosThin is Cos with one call to math.Cos for an interval of radius
+// r ≤ thinRadius about its midpoint m (else it is Cos):
+// |cos x - cos m| ≤ |sin m|·r + r²/2 ≤ r + r²/2 (Taylor, |cos”| ≤ 1).
+func cosThin(x Interval) Interval {
+	if !x.IsFinite() {
+		return Cos(x)
+	}
+	m := x.Mid()
+	r := fmax(addUp(x.Hi, -m), addUp(m, -x.Lo))
+	if r > thinRadius {
+		return Cos(x)
+	}
+	c := cosPoint(m)
+	if r == 0 {
+		return c
+	}
+	e := addUp(r, mulUp(mulUp(r, r), 0.5))
+	return Interval{fmax(-1, addDown(c.Lo, -e)), fmin(1, addUp(c.Hi, e))}
+}
+
 // sameStrictSign reports whether a and b lie both in (0, ∞) or both in
 // (-∞, 0).
 func sameStrictSign(a, b Interval) bool {

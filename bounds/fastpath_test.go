@@ -106,3 +106,24 @@ func TestSechXOverSinhThin(t *testing.T) {
 		}
 	}
 }
+
+// TestCosThin checks the one-call cosine of thin intervals (cosThin) against
+// cos in math/big at both ends of intervals of radius up to 2⁻²⁰, from 0 to
+// beyond 2²⁹ (where Go's argument reduction changes), and that wide or
+// infinite intervals fall back to Cos.
+func TestCosThin(t *testing.T) {
+	for _, m := range []float64{0, 1e-300, 0.3, -1.5707963267948966, 3.141592653589793, -2.5, 100.25, 1e6 + 0.1, 0x1p29 + 3, 1e15} {
+		for _, r := range []float64{0, 0x1p-60, 1e-15, 3e-9, 0x1p-20, 0.5} {
+			x := Interval{m - r, m + r}
+			got := cosThin(x)
+			for _, v := range []float64{x.Lo, x.Hi, m} {
+				if want := bigref.Cos(bigref.New(v)); !bigref.In(got.Lo, got.Hi, want) {
+					t.Errorf("cosThin(%v) = %v does not contain cos(%g) = %.17g", x, got, v, bigref.Float64(want))
+				}
+			}
+		}
+	}
+	if got := cosThin(Interval{0, math.Inf(1)}); got != (Interval{-1, 1}) {
+		t.Errorf("cosThin([0, +Inf]) = %v, want [-1, 1]", got)
+	}
+}

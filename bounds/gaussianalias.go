@@ -76,12 +76,12 @@ func gaussianAliasSum(ctx context.Context, sigma, c float64, g Grid, xi float64,
 	if ctx.Err() != nil {
 		return SampledSum{}, false
 	}
-	C := SqrtTwoPi.Scale(sigma) // σ√(2π)
 	// The general path validates the envelopes (amplitude σ√(2π), widths σ
-	// and 1/σ); where they leave the float64 range, let it report so.
-	if !(C.Hi <= math.MaxFloat64) || !(divUp(1, sigma) <= math.MaxFloat64) {
+	// and 1/σ); near the ends of the float64 range, let it report.
+	if !(sigma >= 0x1p-1000 && sigma <= 0x1p1000) {
 		return SampledSum{}, false
 	}
+	C := SqrtTwoPi.Scale(sigma) // σ√(2π)
 	h := g.Step
 	A := Point(xi).Scale(sigma)                          // a = σξ
 	B := TwoPi.Div(Point(h)).Scale(sigma)                // b = σP
@@ -230,11 +230,21 @@ func gaussianCopies(C, E0, A, B, u Interval, Fmag float64, limit int64, tol floa
 			// enclosure of 2π. right·e^{iθ} + left·e^{-iθ}
 			// = (right + left)·cos θ + i·(right - left)·sin θ.
 			var sin, cos Interval
-			switch L {
-			case 0:
+			switch {
+			case mirror && L == 0:
+				// At ξ = 0 only the cosines are needed (the sines cancel).
+				ph1 = Complex{Re: cosThin(TwoPi.Mul(u))}
+				ph = ph1
+			case mirror && L == 1:
+				// cos 2θ = 2cos²θ - 1 (DLMF 4.21.36, from memory)
+				ph = Complex{Re: ph1.Re.Sqr().scale2(2).AddFloat(-1)}
+			case mirror:
+				v := u.Scale(float64(L + 1))
+				ph = Complex{Re: cosThin(TwoPi.Mul(v.AddFloat(-math.Round(v.Mid()))))}
+			case L == 0:
 				ph1 = Cis(TwoPi.Mul(u))
 				ph = ph1
-			case 1:
+			case L == 1:
 				// cos 2θ = 1 - 2 sin²θ, sin 2θ = 2 sinθ cosθ (DLMF 4.21.35, 4.21.36, from memory)
 				ph = Complex{Interval{1, 1}.Sub(ph1.Im.Sqr().scale2(2)), ph1.Im.Mul(ph1.Re).scale2(2)}
 			default:

@@ -42,7 +42,8 @@ func (x Interval) String() string {
 
 // IsFinite reports whether both endpoints are finite numbers.
 func (x Interval) IsFinite() bool {
-	return !math.IsInf(x.Lo, 0) && !math.IsInf(x.Hi, 0) && !math.IsNaN(x.Lo) && !math.IsNaN(x.Hi)
+	// A NaN fails both comparisons.
+	return math.Abs(x.Lo) <= math.MaxFloat64 && math.Abs(x.Hi) <= math.MaxFloat64
 }
 
 // Contains reports whether v lies in x.
