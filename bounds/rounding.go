@@ -69,6 +69,39 @@ func addDown(a, b float64) float64 {
 	return stepDown(s)
 }
 
+// addOut returns addDown(a, b) and addUp(c, d) in one call: the endpoints
+// of an interval sum. Interval operations call it (and mulOut) so that
+// they cost one function call, not two, and are small enough to inline.
+func addOut(a, b, c, d float64) (lo, hi float64) {
+	lo, hi = a+b, c+d
+	bb := lo - a
+	if e := (a - (lo - bb)) + (b - bb); !(e >= 0 && e <= math.MaxFloat64) {
+		lo = stepDown(lo)
+	}
+	dd := hi - c
+	if e := (c - (hi - dd)) + (d - dd); !(e <= 0 && e >= -math.MaxFloat64) {
+		hi = stepUp(hi)
+	}
+	return lo, hi
+}
+
+// subOut returns addDown(a, -b) and addUp(c, -d) in one call (see addOut).
+func subOut(a, b, c, d float64) (lo, hi float64) {
+	return addOut(a, -b, c, -d)
+}
+
+// mulOut returns mulDown(a, b) and mulUp(c, d) in one call (see addOut).
+func mulOut(a, b, c, d float64) (lo, hi float64) {
+	lo, hi = a*b, c*d
+	if !(math.FMA(a, b, -lo) >= 0 && math.Abs(lo) >= minExact) {
+		lo = mulDownSlow(a, b, lo)
+	}
+	if !(math.FMA(c, d, -hi) <= 0 && math.Abs(hi) >= minExact) {
+		hi = mulUpSlow(c, d, hi)
+	}
+	return lo, hi
+}
+
 // stepUp returns nextUp(s), and +Inf for a NaN s (from +Inf + -Inf).
 func stepUp(s float64) float64 {
 	if s != s {
