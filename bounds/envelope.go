@@ -357,6 +357,14 @@ func (t EnvelopeTerm) tail(d, h float64) float64 {
 		// B is non-increasing, so B(d) ≤ B(h) ≤ C: no need for C.
 		return t.rayFrom(d, h)
 	}
+	var b float64 // B(d), for d > 0
+	if d > 0 {
+		// C ≥ g(0) ≥ A: when B(d) ≤ A, min(B(d), C) = B(d), and C
+		// (two more ray bounds) need not be computed.
+		if b = t.rayFrom(d, h); b <= t.Amplitude {
+			return b
+		}
+	}
 	g0 := t.at(0)
 	var c float64
 	if t.Plateau == 0 {
@@ -368,7 +376,7 @@ func (t EnvelopeTerm) tail(d, h float64) float64 {
 	if d <= 0 {
 		return c
 	}
-	return math.Min(t.rayFrom(d, h), c)
+	return math.Min(b, c)
 }
 
 // RayTail returns an upper bound, valid for every start point x0 in the
