@@ -129,6 +129,16 @@ func appendLeafSpectral(dst Envelope, f Family) (Envelope, bool) {
 	return dst, false
 }
 
+// validatesEnvelopes reports whether f's Validate checks its envelopes'
+// range (checkEnvelopeRange), so that callers need not check them again.
+func validatesEnvelopes(f Family) bool {
+	switch f.(type) {
+	case ExponentialFamily, FejerFamily, LorentzianFamily, SechFamily, SechSquaredFamily, WavePacketFamily:
+		return true
+	}
+	return false
+}
+
 // envelopeStack is the number of envelope terms kept on the stack for a
 // catalogue family (they have one or two).
 const envelopeStack = 16
@@ -265,11 +275,12 @@ func composedValid(f Family, nodes int) (int, bool) {
 			}
 			continue
 		}
-		// validateLeaf: the family's own checks and its envelopes.
+		// validateLeaf: the family's own checks and its envelopes (which
+		// the closed-form families' Validate checks already).
 		if v, ok := c.(Validator); ok && v.Validate() != nil {
 			return nodes, false
 		}
-		if !envelopesInRange(c) {
+		if !validatesEnvelopes(c) && !envelopesInRange(c) {
 			return nodes, false
 		}
 	}
