@@ -46,7 +46,8 @@ const minExact = 0x1p-968
 
 // addUp returns an upper bound on a + b: RN(a+b) if that is already above
 // the exact sum, else the next float64. +Inf + -Inf gives +Inf.
-// The fast path is small enough to be inlined.
+// (Too large for the inliner with its slow path; interval operations use
+// addOut, one call for both endpoints.)
 func addUp(a, b float64) float64 {
 	s := a + b
 	// TwoSum error e = (a+b) - s; NaN when s or an operand is infinite.
@@ -120,8 +121,8 @@ func stepDown(s float64) float64 {
 
 // mulUp and mulDown treat 0 times ±Inf as 0 (IEEE 1788) and are exact when
 // a factor is 0 or the product is exact; other products round outward.
-// The fast path (|a·b| ≥ 2⁻⁹⁶⁸, the FMA error on the right side) is small
-// enough to be inlined.
+// The fast path is |a·b| ≥ 2⁻⁹⁶⁸ with the FMA error on the right side;
+// interval operations use mulOut, one call for both endpoints.
 func mulUp(a, b float64) float64 {
 	p := a * b
 	// e = a·b - p; -Inf when a finite product overflowed to +Inf, NaN when
