@@ -381,8 +381,9 @@ func cosThin(x Interval) Interval {
 	if r == 0 {
 		return c
 	}
-	e := addUp(r, mulUp(mulUp(r, r), 0.5))
-	return Interval{fmax(-1, addDown(c.Lo, -e)), fmin(1, addUp(c.Hi, e))}
+	e := mulUp(r, 1+0x1p-20) // ≥ r + r²/2, as r ≤ 2⁻²⁰
+	lo, hi := addOut(c.Lo, -e, c.Hi, e)
+	return Interval{fmax(-1, lo), fmin(1, hi)}
 }
 
 // sameStrictSign reports whether a and b lie both in (0, ∞) or both in

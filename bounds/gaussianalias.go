@@ -207,7 +207,7 @@ func gaussianCopies(C, E0, A, B, u Interval, Fmag float64, limit int64, tol floa
 		tail := est
 		if est <= 2*goal {
 			if mirror {
-				tail = mulUp(C.Hi, mulUp(2, geomUp(cR.Hi, rR.Hi)))
+				tail = mulUp(C.Hi, 2*geomUp(cR.Hi, rR.Hi)) // 2x is exact (or +Inf)
 			} else {
 				tail = mulUp(C.Hi, addUp(geomUp(cR.Hi, rR.Hi), geomUp(cL.Hi, rL.Hi)))
 			}
