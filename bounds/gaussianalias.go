@@ -92,7 +92,7 @@ func gaussianAliasSum(ctx context.Context, sigma, c float64, g Grid, xi float64,
 	F := RealC(C)
 	if xi != 0 {
 		E0 = Exp(A.Sqr().scale2(-0.5))
-		F = RealC(E0.Mul(C))
+		F = RealC(E0.mulPos(C))
 	}
 	Fmag := F.Re.Mag()
 	var phase Complex // e^{-iξc} for a shifted Gaussian
@@ -153,6 +153,9 @@ func gaussianAliasSum(ctx context.Context, sigma, c float64, g Grid, xi float64,
 // (a = 0) the two sides are equal, copy 1 is r_0 = exp(-b²/2) and q = r_0².
 // Copy 1 = E0·r_0 is as tight as one exponential for small |a|; otherwise
 // it is evaluated directly.
+//
+// Every exponential, E0, C and their products are intervals in [0, ∞), so
+// their products are formed by mulPos.
 func gaussianCopies(C, E0, A, B, u Interval, Fmag float64, limit int64, tol float64) (Complex, int64, float64, bool) {
 	mirror := A.Lo == 0 && A.Hi == 0 // ξ = 0: the copies ±l are equal
 	zeroShift := u.Lo == 0 && u.Hi == 0
@@ -161,17 +164,17 @@ func gaussianCopies(C, E0, A, B, u Interval, Fmag float64, limit int64, tol floa
 	switch {
 	case mirror:
 		cR = Exp(half.Neg()) // copy 1 = r_0 = exp(-b²/2)
-		q = cR.Sqr()
-		rR = cR.Mul(q)
+		q = cR.mulPos(cR)
+		rR = cR.mulPos(q)
 		cL, rL = cR, rR
 	case A.Mag() <= 1:
 		// Copy 1 = E0·r_0: the exponents -a²/2 and ∓ab - b²/2 have the
 		// sign of their sum, so the product is as tight as one exponential.
 		ab := A.Mul(B)
 		r0R, r0L := Exp(ab.Add(half).Neg()), Exp(ab.Sub(half))
-		q = r0R.Mul(r0L)
-		cR, cL = E0.Mul(r0R), E0.Mul(r0L)
-		rR, rL = r0R.Mul(q), r0L.Mul(q)
+		q = r0R.mulPos(r0L)
+		cR, cL = E0.mulPos(r0R), E0.mulPos(r0L)
+		rR, rL = r0R.mulPos(q), r0L.mulPos(q)
 	default:
 		// For larger |a| the exponents of E0 and r_0 cancel, and their
 		// widths (mostly the enclosure of π in b) would add up: evaluate
@@ -213,7 +216,7 @@ func gaussianCopies(C, E0, A, B, u Interval, Fmag float64, limit int64, tol floa
 			}
 		}
 		if tail <= goal && (L > 0 || tail == 0 || tail <= tol) {
-			sum := Complex{Re: re.Mul(C)}
+			sum := Complex{Re: re.Mul(C)} // C > 0, re of either sign
 			if !mirror && !zeroShift {
 				sum.Im = im.Mul(C)
 			}
@@ -259,13 +262,13 @@ func gaussianCopies(C, E0, A, B, u Interval, Fmag float64, limit int64, tol floa
 			}
 		}
 		if mirror {
-			cR = cR.Mul(rR)
-			rR = rR.Mul(q)
+			cR = cR.mulPos(rR)
+			rR = rR.mulPos(q)
 			cL, rL = cR, rR
 			continue
 		}
-		cR, cL = cR.Mul(rR), cL.Mul(rL)
-		rR, rL = rR.Mul(q), rL.Mul(q)
+		cR, cL = cR.mulPos(rR), cL.mulPos(rL)
+		rR, rL = rR.mulPos(q), rL.mulPos(q)
 	}
 }
 
@@ -346,7 +349,7 @@ func gaussianOmitted(sigma, c float64, g Grid, xi float64, Fmag float64, budget 
 			re = re.Add(er).Add(el)
 		}
 		n += 2
-		er, el = er.Mul(rr), el.Mul(rl)
-		rr, rl = rr.Mul(q), rl.Mul(q)
+		er, el = er.mulPos(rr), el.mulPos(rl)
+		rr, rl = rr.mulPos(q), rl.mulPos(q)
 	}
 }

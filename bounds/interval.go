@@ -182,6 +182,13 @@ func (x Interval) Mul(y Interval) Interval {
 	}
 }
 
+// mulPos returns x·y for x, y ⊆ [0, ∞] (the caller's invariant): Mul
+// without its sign cases, one call.
+func (x Interval) mulPos(y Interval) Interval {
+	lo, hi := mulOut(x.Lo, y.Lo, x.Hi, y.Hi)
+	return Interval{lo, hi}
+}
+
 // mulIv is the interval [mulDown(a, b), mulUp(c, d)].
 func mulIv(a, b, c, d float64) Interval {
 	lo, hi := mulOut(a, b, c, d)
