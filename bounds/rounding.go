@@ -23,17 +23,20 @@ import "math"
 // exceeds MaxFloat64, so MaxFloat64 is a valid lower bound.
 
 // nextUp returns the least float64 greater than x (x itself for +Inf, NaN).
+// The cases are tested on the bits, most common first: +0 and positive
+// finite numbers step up by one unit of their bits (+0 becomes the least
+// subnormal), negative ones down by one (-Inf becomes -MaxFloat64).
 func nextUp(x float64) float64 {
+	b := math.Float64bits(x)
 	switch {
-	case x != x || x == math.Inf(1):
-		return x
-	case x == 0:
+	case b < 0x7FF0000000000000: // +0 or positive finite
+		return math.Float64frombits(b + 1)
+	case b > 0x8000000000000000 && b <= 0xFFF0000000000000: // negative, not -0, not NaN
+		return math.Float64frombits(b - 1)
+	case b == 0x8000000000000000: // -0
 		return math.SmallestNonzeroFloat64
-	case x > 0:
-		return math.Float64frombits(math.Float64bits(x) + 1)
-	default:
-		return math.Float64frombits(math.Float64bits(x) - 1)
 	}
+	return x // +Inf, NaN
 }
 
 // nextDown returns the greatest float64 less than x (x itself for -Inf, NaN).
