@@ -84,7 +84,7 @@ func halfExpBounds(v float64) (lo, hi float64) {
 // A thin interval, of width d ≤ 2⁻²⁶ (a point computed in interval
 // arithmetic), takes one call to math.Exp, at the lower end:
 //
-//	e^{x.Hi} = e^{x.Lo}·e^d ≤ e^{x.Lo}·(1 + d + d²)   (d ≤ 1),
+//	e^{x.Hi} = e^{x.Lo}·e^d ≤ e^{x.Lo}·(1 + d + d²) ≤ e^{x.Lo}·(1 + d·(1 + 2⁻²⁶))   (d ≤ 2⁻²⁶),
 //
 // from e^d = 1 + d + d²(1/2 + d/6 + …) with the bracket at most e - 2 < 1;
 // d² ≤ 2⁻⁵² keeps this within about an ulp of two calls.
@@ -95,7 +95,8 @@ func Exp(x Interval) Interval {
 	}
 	if d := addUp(x.Hi, -x.Lo); d <= 0x1p-26 && x.Hi <= expDirect {
 		lo, hi := expBounds(x.Lo)
-		return Interval{lo, mulUp(hi, addUp(1, addUp(d, mulUp(d, d))))}
+		// 1 + d + d² ≤ 1 + d·(1 + 2⁻²⁶) for d ≤ 2⁻²⁶.
+		return Interval{lo, mulUp(hi, addUp(1, mulUp(d, 1+0x1p-26)))}
 	}
 	lo, _ := expBounds(x.Lo)
 	_, hi := expBounds(x.Hi)
@@ -357,12 +358,12 @@ const thinRadius = 0x1p-20
 // as tight as the endpoint values to first order.
 func sinCosThin(m, r float64) (sin, cos Interval) {
 	s, c := sincosPoint(m)
-	q := mulUp(mulUp(r, r), 0.5)
-	es := addUp(mulUp(c.Mag(), r), q)
-	ec := addUp(mulUp(s.Mag(), r), q)
-	sin = Interval{fmax(-1, addDown(s.Lo, -es)), fmin(1, addUp(s.Hi, es))}
-	cos = Interval{fmax(-1, addDown(c.Lo, -ec)), fmin(1, addUp(c.Hi, ec))}
-	return sin, cos
+	// |c|·r + r²/2 ≤ (|c| + 2⁻²¹)·r, as r ≤ thinRadius = 2⁻²⁰.
+	es := mulUp(addUp(c.Mag(), 0x1p-21), r)
+	ec := mulUp(addUp(s.Mag(), 0x1p-21), r)
+	sLo, sHi := addOut(s.Lo, -es, s.Hi, es)
+	cLo, cHi := addOut(c.Lo, -ec, c.Hi, ec)
+	return Interval{fmax(-1, sLo), fmin(1, sHi)}, Interval{fmax(-1, cLo), fmin(1, cHi)}
 }
 
 // cosThin is Cos with one call to math.Cos for an interval of radius
