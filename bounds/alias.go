@@ -61,10 +61,33 @@ type Method struct {
 // settings: a *ParamError names the field), ErrWorkLimit (more terms than
 // set.MaxTerms), ErrNotFinite, or the context's error.
 func AliasSum(ctx context.Context, f Family, g Grid, xi float64, set Settings) (SampledSum, error) {
-	if err := checkAliasArgs(f, g, xi, set); err != nil {
+	env, err := checkAliasArgsEnv(f, g, xi, set)
+	if err != nil {
 		return SampledSum{}, err
 	}
-	s := newSummer(ctx, f, g, Point(xi), Point(g.Shift), false, set)
+	if res, ok := fastAliasSum(ctx, f, g, xi, set); ok {
+		return res, nil
+	}
+	return aliasSumGeneral(ctx, f, g, xi, set, env)
+}
+
+// familyEnvelopes holds a family's envelopes once built (ok).
+type familyEnvelopes struct {
+	spat, spec Envelope
+	ok         bool
+}
+
+// aliasSumGeneral is AliasSum by the general path (aliasSummer), for every
+// family, after the arguments have been checked; env are f's envelopes if
+// the check built them.
+func aliasSumGeneral(ctx context.Context, f Family, g Grid, xi float64, set Settings, env familyEnvelopes) (SampledSum, error) {
+	// The envelopes are built once, into one slice for a catalogue family.
+	// (The summer passes its family to interface calls, so escape analysis
+	// cannot keep what the summer points to on the stack.)
+	if !env.ok {
+		env.spat, env.spec = envelopesOf(f)
+	}
+	s := newSummerEnv(ctx, f, g, Point(xi), Point(g.Shift), false, set, env.spat, env.spec)
 	if err := validateEnvelopes(s.spat, s.spec); err != nil {
 		return SampledSum{}, err
 	}
@@ -78,17 +101,37 @@ func AliasSum(ctx context.Context, f Family, g Grid, xi float64, set Settings) (
 	return res, nil
 }
 
+// checkAliasArgs checks the arguments of AliasSum.
 func checkAliasArgs(f Family, g Grid, xi float64, set Settings) error {
-	if err := validateParams(f); err != nil {
-		return err
+	_, err := checkAliasArgsEnv(f, g, xi, set)
+	return err
+}
+
+// checkAliasArgsEnv is checkAliasArgs that also returns a composed family's
+// envelopes, which its validation needs: they are built once.
+func checkAliasArgsEnv(f Family, g Grid, xi float64, set Settings) (familyEnvelopes, error) {
+	var env familyEnvelopes
+	if _, ok := f.(composite); ok {
+		// Validate would build the envelopes of the whole tree for its
+		// range check, and the sum again: check them once here, and take
+		// the path-naming validation only if something is wrong.
+		if _, valid := composedValid(f, 1); valid {
+			env.spat, env.spec = envelopesOf(f)
+			env.ok = envelopeInRange(env.spat) && envelopeInRange(env.spec)
+		}
+	}
+	if !env.ok {
+		if err := validateParams(f); err != nil {
+			return env, err
+		}
 	}
 	if err := g.Validate("grid"); err != nil {
-		return err
+		return env, err
 	}
 	if !finite(xi) {
-		return invalidf("xi", "must be finite, got %g", xi)
+		return env, invalidf("xi", "must be finite, got %g", xi)
 	}
-	return set.Validate()
+	return env, set.Validate()
 }
 
 // aliasSummer holds the state of one alias-sum computation. The frequency
@@ -114,8 +157,13 @@ type aliasSummer struct {
 
 // newSummer returns a summer for f on g at frequencies xi and shifts shift.
 func newSummer(ctx context.Context, f Family, g Grid, xi, shift Interval, abs bool, set Settings) aliasSummer {
+	return newSummerEnv(ctx, f, g, xi, shift, abs, set, f.Spatial(), f.Spectral())
+}
+
+// newSummerEnv is newSummer with f's envelopes given by the caller.
+func newSummerEnv(ctx context.Context, f Family, g Grid, xi, shift Interval, abs bool, set Settings, spat, spec Envelope) aliasSummer {
 	return aliasSummer{ctx: ctx, f: f, g: g, xi: xi, shift: shift, abs: abs, set: set,
-		spec: f.Spectral(), spat: f.Spatial()}
+		spec: spec, spat: spat}
 }
 
 // at encloses the sample positions s + h·k for every s in the shift.
@@ -319,12 +367,11 @@ func (s *aliasSummer) chooseSide(F Complex, P Interval) (Side, int64) {
 func (s *aliasSummer) spectralTail(P Interval, L int64) float64 {
 	spec := s.spec
 	next := P.Scale(float64(L + 1))
-	right := spec.RayTail(s.xi.Add(next), 1, P.Lo)
 	if s.xi.Lo == 0 && s.xi.Hi == 0 && spec.centred() {
 		// At ξ = 0 an envelope centred at 0 sees both rays alike.
-		return mulUp(2, right)
+		return mulUp(2, spec.RayTail(s.xi.Add(next), 1, P.Lo))
 	}
-	return addUp(right, spec.RayTail(s.xi.Sub(next), -1, P.Lo))
+	return spec.rayTails(s.xi.Add(next), s.xi.Sub(next), P.Lo)
 }
 
 // firstCopies returns spectralEstimate(P, 0), computed once per summer.
@@ -515,10 +562,15 @@ func (s *aliasSummer) spectralAlias(P Interval, F Complex, limit int64) (Complex
 			v := u.Scale(float64(L))
 			v = v.AddFloat(-math.Round(v.Mid()))
 			ph := Cis(TwoPi.Mul(v))
-			if mirror {
+			switch {
+			case mirror:
 				// F e^{iθ} + F e^{-iθ} = 2F cos θ.
 				sum = sum.Add(right.MulReal(ph.Re.Scale(2)))
-			} else {
+			case right.Im == Interval{} && left.Im == Interval{}:
+				// Real copies (even real f): R e^{iθ} + L e^{-iθ}
+				// = (R + L) cos θ + i (R - L) sin θ.
+				sum = sum.Add(Complex{right.Re.Add(left.Re).Mul(ph.Re), right.Re.Sub(left.Re).Mul(ph.Im)})
+			default:
 				sum = sum.Add(right.Mul(ph)).Add(left.Mul(ph.Conj()))
 			}
 		}
@@ -536,15 +588,26 @@ func (s *aliasSummer) spectralAlias(P Interval, F Complex, limit int64) (Complex
 
 // term encloses h·f(x_k)·e^{-iξx_k}.
 func (s *aliasSummer) term(k int64) Complex {
+	return s.sample(k).Scale(s.g.Step)
+}
+
+// sample encloses f(x_k)·e^{-iξx_k} (|f(x_k)| in abs mode), the term
+// without the factor h, which sums multiply once.
+func (s *aliasSummer) sample(k int64) Complex {
 	x := s.at(k)
 	v := s.f.Value(x)
 	if s.abs {
-		return RealC(v.Abs().Scale(s.g.Step))
+		return RealC(v.Abs())
 	}
-	if !(s.xi.Lo == 0 && s.xi.Hi == 0) {
-		v = v.Mul(Cis(s.xi.Mul(x).Neg()))
+	if s.xi.Lo == 0 && s.xi.Hi == 0 || v == (Complex{}) {
+		return v
 	}
-	return v.Scale(s.g.Step)
+	ph := Cis(s.xi.Mul(x).Neg())
+	if v.Im.Lo == 0 && v.Im.Hi == 0 {
+		// A real value (most families): two products instead of four.
+		return Complex{ph.Re.Mul(v.Re), ph.Im.Mul(v.Re)}
+	}
+	return v.Mul(ph)
 }
 
 // spatialRays bounds h·Σ|f| over the samples beyond index hi (rightward)
@@ -581,10 +644,17 @@ func (s *aliasSummer) spatialWindow(goal float64, rigorous bool) (lo, hi int64, 
 	if len(env) == 0 {
 		return 0, -1, true
 	}
+	// The window starts at the centres (widened by the plateaus), or for
+	// compact terms at the whole support, so that a compactly supported f
+	// is summed over exactly the samples where it may be non-zero.
 	cmin, cmax := math.Inf(1), math.Inf(-1)
 	for _, t := range env {
-		cmin = math.Min(cmin, t.Center-t.Plateau)
-		cmax = math.Max(cmax, t.Center+t.Plateau)
+		r := t.Plateau
+		if t.Decay == Compact {
+			r = addUp(r, t.Width)
+		}
+		cmin = math.Min(cmin, addDown(t.Center, -r))
+		cmax = math.Max(cmax, addUp(t.Center, r))
 	}
 	h := s.g.Step
 	limit := float64(s.set.maxTerms())
@@ -638,10 +708,10 @@ func (s *aliasSummer) spatialInfinite(scale float64) (Complex, Method, error) {
 		if err := s.spend(1, "spatial sum"); err != nil {
 			return Complex{}, Method{}, err
 		}
-		acc.add(s.term(k))
+		acc.add(s.sample(k))
 	}
 	rem := s.spatialRays(lo, hi)
-	T := acc.value().Inflate(rem)
+	T := acc.value().Scale(s.g.Step).Inflate(rem)
 	return T, Method{Side: SpatialSide, AliasTerms: hi - lo + 1, Remainder: rem, RemainderFrom: s.spat.Kinds()}, nil
 }
 
@@ -653,9 +723,9 @@ func (s *aliasSummer) finiteSum() (Complex, error) {
 		if err := s.spend(1, "finite grid sum"); err != nil {
 			return Complex{}, err
 		}
-		acc.add(s.term(k))
+		acc.add(s.sample(k))
 	}
-	return acc.value(), nil
+	return acc.value().Scale(s.g.Step), nil
 }
 
 // omittedSum returns the truncation part -h Σ_{k omitted} f(x_k)e^{-iξx_k}

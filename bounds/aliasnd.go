@@ -139,12 +139,12 @@ func productDiff(base, delta, full []Complex) (diff, prod Complex) {
 // combineAxes forms the n-dimensional result from the per-axis results.
 func combineAxes(axes []SampledSum) SampledSum {
 	n := len(axes)
-	F := make([]Complex, n)
-	E := make([]Complex, n)
-	T := make([]Complex, n)
-	A := make([]Complex, n)
-	Tinf := make([]Complex, n)
-	R := make([]Complex, n)
+	var buf [6 * MaxDim]Complex // on the stack for n ≤ MaxDim
+	all := buf[:]
+	if 6*n > len(buf) {
+		all = make([]Complex, 6*n)
+	}
+	F, E, T, A, Tinf, R := all[:n], all[n:2*n], all[2*n:3*n], all[3*n:4*n], all[4*n:5*n], all[5*n:6*n]
 	for j, a := range axes {
 		F[j], E[j], T[j], A[j], R[j] = a.Exact, a.Error, a.Sampled, a.Alias, a.Truncation
 		Tinf[j] = a.Exact.Add(a.Alias)

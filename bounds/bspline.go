@@ -81,6 +81,9 @@ func bsplineValue(m int, x Interval) Interval {
 		}
 		return r
 	}
+	if v, ok := bsplinePieceValue(m, a); ok {
+		return v
+	}
 	y := a.Neg()
 	var sum Interval
 	c := 1.0 // (-1)^j C(m, j), exact: small integers
@@ -99,6 +102,84 @@ func bsplineValue(m int, x Interval) Interval {
 	}
 	v := sum.Div(Point(fact))
 	return Interval{math.Max(v.Lo, 0), math.Min(v.Hi, 1)}
+}
+
+// bsplinePieces[m][j] holds the coefficients, in ascending powers of t, of
+// the polynomial piece of (m-1)!·M_m on the knot interval [j - m/2, j + 1 - m/2]
+// in the local variable t = x + m/2 - j ∈ [0, 1]: by the truncated-power
+// formula above, where the terms i ≤ j are the non-zero ones there,
+//
+//	(m-1)!·M_m = Σ_{i=0}^{j} (-1)^i C(m,i) (t + j - i)^{m-1}
+//	           = Σ_r t^r · C(m-1,r) · Σ_{i=0}^{j} (-1)^i C(m,i) (j - i)^{m-1-r}
+//
+// (binomial expansion; 0⁰ = 1). The coefficients are integers below 2⁴⁰
+// for m ≤ 8, exact in float64. Only the pieces j < m/2 are used (M_m is
+// even).
+var bsplinePieces = func() (p [MaxBSplineOrder + 1][MaxBSplineOrder][MaxBSplineOrder]float64) {
+	binom := func(n, k int) int64 {
+		r := int64(1)
+		for i := 1; i <= k; i++ {
+			r = r * int64(n-k+i) / int64(i)
+		}
+		return r
+	}
+	ipow := func(b, e int) int64 {
+		r := int64(1)
+		for range e {
+			r *= int64(b)
+		}
+		return r
+	}
+	for m := 2; m <= MaxBSplineOrder; m++ {
+		for j := 0; j < m; j++ {
+			for r := 0; r < m; r++ {
+				var c int64
+				for i := 0; i <= j; i++ {
+					t := binom(m, i) * ipow(j-i, m-1-r)
+					if i%2 == 1 {
+						t = -t
+					}
+					c += t
+				}
+				p[m][j][r] = float64(c * binom(m-1, r))
+			}
+		}
+	}
+	return p
+}()
+
+// bsplineFact[m] is (m-1)!, exact.
+var bsplineFact = [MaxBSplineOrder + 1]float64{0, 1, 1, 2, 6, 24, 120, 720, 5040}
+
+// bsplinePieceValue encloses M_m(x) for x in ±a, a ≥ 0 inside the support,
+// by Horner's rule on the polynomial piece at y = -a, for m ≥ 2, when -a
+// lies within one knot interval (ok = false otherwise: then the truncated
+// powers are summed, which hold across knots). Horner's rule in interval
+// arithmetic costs m-1 products and sums, the truncated powers about m²/2
+// products.
+func bsplinePieceValue(m int, a Interval) (Interval, bool) {
+	if m < 2 || m > MaxBSplineOrder {
+		return Interval{}, false
+	}
+	u := a.Neg().AddFloat(float64(m) / 2) // y + m/2, y = -a; m/2 is exact
+	if !(u.Lo >= 0) {
+		return Interval{}, false // reaches past the support's end
+	}
+	j := math.Floor(u.Lo)
+	if j >= float64(m)/2 && u.Hi == j && j >= 1 {
+		j-- // x = 0 on a knot (even m): the end t = 1 of the piece below
+	}
+	if j >= float64(m)/2 || u.Hi > j+1 {
+		return Interval{}, false // past the centre, or a knot inside u
+	}
+	t := Interval{fmax(0, addDown(u.Lo, -j)), fmin(1, addUp(u.Hi, -j))}
+	c := &bsplinePieces[m][int(j)]
+	p := Point(c[m-1])
+	for r := m - 2; r >= 0; r-- {
+		p = p.Mul(t).AddFloat(c[r])
+	}
+	v := p.Div(Point(bsplineFact[m]))
+	return Interval{fmax(v.Lo, 0), fmin(v.Hi, 1)}, true
 }
 
 // Transform encloses (sin(ξ/2)/(ξ/2))^m.

@@ -27,7 +27,7 @@ func divPos(x Interval, w float64) Interval {
 // leaves the float64 range (an amplitude overflows, a rate or width
 // underflows to 0). The error is a *ParamError naming param.
 func checkEnvelopeRange(f Family, param string, v float64) error {
-	if !envelopeInRange(f.Spatial()) || !envelopeInRange(f.Spectral()) {
+	if !envelopesInRange(f) {
 		return invalidf(param, "%g is out of range: an envelope of the family leaves the float64 range", v)
 	}
 	return nil

@@ -114,10 +114,9 @@ func (z Complex) Abs() Interval { return Interval{z.Mig(), z.Mag()} }
 // inside the result), used to add a bounded but unknown term.
 func (z Complex) Inflate(r float64) Complex {
 	r = math.Abs(r)
-	return Complex{
-		Interval{addDown(z.Re.Lo, -r), addUp(z.Re.Hi, r)},
-		Interval{addDown(z.Im.Lo, -r), addUp(z.Im.Hi, r)},
-	}
+	reLo, reHi := addOut(z.Re.Lo, -r, z.Re.Hi, r)
+	imLo, imHi := addOut(z.Im.Lo, -r, z.Im.Hi, r)
+	return Complex{Interval{reLo, reHi}, Interval{imLo, imHi}}
 }
 
 // Cis returns e^{iθ} = cos θ + i sin θ. A point or thin θ costs one call

@@ -35,28 +35,142 @@ type composite interface {
 	appendSpectral(dst Envelope) Envelope
 }
 
-// envelopeAppender is implemented by the catalogue and composition
-// families: they append their envelopes to a slice, so that callers with
-// room for them allocate nothing.
-type envelopeAppender interface {
-	appendSpatial(dst Envelope) Envelope
-	appendSpectral(dst Envelope) Envelope
-}
-
 // appendSpatial appends the spatial envelope of f to dst.
 func appendSpatial(dst Envelope, f Family) Envelope {
-	if c, ok := f.(envelopeAppender); ok {
-		return c.appendSpatial(dst)
+	if e, ok := appendLeafSpatial(dst, f); ok {
+		return e
+	}
+	switch g := f.(type) {
+	case AmplitudeFamily:
+		return g.appendSpatial(dst)
+	case ShiftFamily:
+		return g.appendSpatial(dst)
+	case DilationFamily:
+		return g.appendSpatial(dst)
+	case ModulationFamily:
+		return g.appendSpatial(dst)
+	case SumFamily:
+		return g.appendSpatial(dst)
 	}
 	return append(dst, f.Spatial()...)
 }
 
 // appendSpectral appends the spectral envelope of f to dst.
 func appendSpectral(dst Envelope, f Family) Envelope {
-	if c, ok := f.(envelopeAppender); ok {
-		return c.appendSpectral(dst)
+	if e, ok := appendLeafSpectral(dst, f); ok {
+		return e
+	}
+	switch g := f.(type) {
+	case AmplitudeFamily:
+		return g.appendSpectral(dst)
+	case ShiftFamily:
+		return g.appendSpectral(dst)
+	case DilationFamily:
+		return g.appendSpectral(dst)
+	case ModulationFamily:
+		return g.appendSpectral(dst)
+	case SumFamily:
+		return g.appendSpectral(dst)
 	}
 	return append(dst, f.Spectral()...)
+}
+
+// appendLeafSpatial appends the spatial envelope of a catalogue family to
+// dst, or reports false for any other family. Its calls are static and it
+// does not recurse, so dst does not escape: callers can build envelopes in
+// arrays on the stack. (Calls through an interface, and the recursion of
+// the composed families, make escape analysis move the array to the heap.)
+func appendLeafSpatial(dst Envelope, f Family) (Envelope, bool) {
+	switch g := f.(type) {
+	case GaussianFamily:
+		return g.appendSpatial(dst), true
+	case ExponentialFamily:
+		return g.appendSpatial(dst), true
+	case LorentzianFamily:
+		return g.appendSpatial(dst), true
+	case SechFamily:
+		return g.appendSpatial(dst), true
+	case SechSquaredFamily:
+		return g.appendSpatial(dst), true
+	case WavePacketFamily:
+		return g.appendSpatial(dst), true
+	case FejerFamily:
+		return g.appendSpatial(dst), true
+	case BSplineFamily:
+		return g.appendSpatial(dst), true
+	case KaiserBesselFamily:
+		return g.appendSpatial(dst), true
+	}
+	return dst, false
+}
+
+// appendLeafSpectral is appendLeafSpatial for the spectral envelope.
+func appendLeafSpectral(dst Envelope, f Family) (Envelope, bool) {
+	switch g := f.(type) {
+	case GaussianFamily:
+		return g.appendSpectral(dst), true
+	case ExponentialFamily:
+		return g.appendSpectral(dst), true
+	case LorentzianFamily:
+		return g.appendSpectral(dst), true
+	case SechFamily:
+		return g.appendSpectral(dst), true
+	case SechSquaredFamily:
+		return g.appendSpectral(dst), true
+	case WavePacketFamily:
+		return g.appendSpectral(dst), true
+	case FejerFamily:
+		return g.appendSpectral(dst), true
+	case BSplineFamily:
+		return g.appendSpectral(dst), true
+	case KaiserBesselFamily:
+		return g.appendSpectral(dst), true
+	}
+	return dst, false
+}
+
+// validatesEnvelopes reports whether f's Validate checks its envelopes'
+// range (checkEnvelopeRange), so that callers need not check them again.
+func validatesEnvelopes(f Family) bool {
+	switch f.(type) {
+	case ExponentialFamily, FejerFamily, LorentzianFamily, SechFamily, SechSquaredFamily, WavePacketFamily:
+		return true
+	}
+	return false
+}
+
+// envelopeStack is the number of envelope terms kept on the stack for a
+// catalogue family (they have one or two).
+const envelopeStack = 16
+
+// envelopesOf returns the spatial and spectral envelopes of f; for a
+// catalogue family in one allocation of the size they need.
+func envelopesOf(f Family) (spatial, spectral Envelope) {
+	var buf [envelopeStack]EnvelopeTerm
+	sp, ok := appendLeafSpatial(buf[:0], f)
+	if !ok {
+		heap := make(Envelope, 8)
+		return appendSpatial(heap[:0:4], f), appendSpectral(heap[4:4], f)
+	}
+	sc, _ := appendLeafSpectral(sp, f)
+	both := make(Envelope, len(sc))
+	copy(both, sc)
+	n := len(sp)
+	return both[:n:n], both[n:]
+}
+
+// envelopesInRange reports whether both envelopes of f would pass
+// Envelope.Validate; a catalogue family's are built on the stack.
+func envelopesInRange(f Family) bool {
+	var buf [envelopeStack]EnvelopeTerm
+	if sp, ok := appendLeafSpatial(buf[:0], f); ok {
+		if !envelopeInRange(sp) {
+			return false
+		}
+		sc, _ := appendLeafSpectral(buf[:0], f)
+		return envelopeInRange(sc)
+	}
+	return envelopeInRange(appendSpatial(nil, f)) && envelopeInRange(appendSpectral(nil, f))
 }
 
 // scaleTerms multiplies the amplitudes by k ≥ 0, rounded up (as
@@ -88,16 +202,89 @@ func shiftTerms(e Envelope, c float64) {
 // zero) unless an amplitude 0 multiplies it away, which is then harmless; so
 // the nodes' own envelopes are examined only to name the first node that
 // fails.
+//
+// A valid tree, the common case, is recognised first by composedValid,
+// which builds no parameter paths (they cost allocations on every call).
 func validateRoot(f composite) error {
+	ff := f.(Family)
+	if _, ok := composedValid(ff, 1); ok && envelopesInRange(ff) {
+		return nil
+	}
 	nodes := 1
 	if err := f.validateNode("", &nodes); err != nil {
 		return err
 	}
-	ff := f.(Family)
-	if envelopeInRange(ff.Spatial()) && envelopeInRange(ff.Spectral()) {
+	if envelopesInRange(ff) {
 		return nil
 	}
 	return locateEnvelopeFailure(ff, "")
+}
+
+// composedValid reports whether the node f (counted in nodes) and the
+// families below it pass the checks of validateNode and validateChild, and
+// returns the number of nodes counted so far. It mirrors them without
+// naming parameters; validateRoot runs them for the message when it fails.
+func composedValid(f Family, nodes int) (int, bool) {
+	var one [1]Family
+	var children []Family
+	switch g := f.(type) {
+	case AmplitudeFamily:
+		if !finite(g.Re) || !finite(g.Im) {
+			return nodes, false
+		}
+		one[0] = g.Of
+		children = one[:]
+	case ShiftFamily:
+		if !finite(g.By) {
+			return nodes, false
+		}
+		one[0] = g.Of
+		children = one[:]
+	case DilationFamily:
+		if !finite(g.By) || g.By == 0 {
+			return nodes, false
+		}
+		one[0] = g.Of
+		children = one[:]
+	case ModulationFamily:
+		if !finite(g.Omega0) {
+			return nodes, false
+		}
+		one[0] = g.Of
+		children = one[:]
+	case SumFamily:
+		if len(g.Terms) == 0 {
+			return nodes, false
+		}
+		children = g.Terms
+	default:
+		return nodes, false
+	}
+	for _, c := range children {
+		if c == nil {
+			return nodes, false
+		}
+		nodes++
+		if nodes > MaxComposeNodes {
+			return nodes, false
+		}
+		if _, ok := c.(composite); ok {
+			var ok bool
+			if nodes, ok = composedValid(c, nodes); !ok {
+				return nodes, false
+			}
+			continue
+		}
+		// validateLeaf: the family's own checks and its envelopes (which
+		// the closed-form families' Validate checks already).
+		if v, ok := c.(Validator); ok && v.Validate() != nil {
+			return nodes, false
+		}
+		if !validatesEnvelopes(c) && !envelopesInRange(c) {
+			return nodes, false
+		}
+	}
+	return nodes, true
 }
 
 // locateEnvelopeFailure returns the error of the deepest composition node
@@ -168,7 +355,7 @@ func validateLeaf(f Family) error {
 			return err
 		}
 	}
-	if envelopeInRange(f.Spatial()) && envelopeInRange(f.Spectral()) {
+	if envelopesInRange(f) {
 		return nil
 	}
 	return Validate(f)

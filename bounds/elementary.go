@@ -84,7 +84,7 @@ func halfExpBounds(v float64) (lo, hi float64) {
 // A thin interval, of width d ≤ 2⁻²⁶ (a point computed in interval
 // arithmetic), takes one call to math.Exp, at the lower end:
 //
-//	e^{x.Hi} = e^{x.Lo}·e^d ≤ e^{x.Lo}·(1 + d + d²)   (d ≤ 1),
+//	e^{x.Hi} = e^{x.Lo}·e^d ≤ e^{x.Lo}·(1 + d + d²) ≤ e^{x.Lo}·(1 + d·(1 + 2⁻²⁶))   (d ≤ 2⁻²⁶),
 //
 // from e^d = 1 + d + d²(1/2 + d/6 + …) with the bracket at most e - 2 < 1;
 // d² ≤ 2⁻⁵² keeps this within about an ulp of two calls.
@@ -95,7 +95,8 @@ func Exp(x Interval) Interval {
 	}
 	if d := addUp(x.Hi, -x.Lo); d <= 0x1p-26 && x.Hi <= expDirect {
 		lo, hi := expBounds(x.Lo)
-		return Interval{lo, mulUp(hi, addUp(1, addUp(d, mulUp(d, d))))}
+		// 1 + d + d² ≤ 1 + d·(1 + 2⁻²⁶) for d ≤ 2⁻²⁶.
+		return Interval{lo, mulUp(hi, addUp(1, mulUp(d, 1+0x1p-26)))}
 	}
 	lo, _ := expBounds(x.Lo)
 	_, hi := expBounds(x.Hi)
@@ -357,12 +358,33 @@ const thinRadius = 0x1p-20
 // as tight as the endpoint values to first order.
 func sinCosThin(m, r float64) (sin, cos Interval) {
 	s, c := sincosPoint(m)
-	q := mulUp(mulUp(r, r), 0.5)
-	es := addUp(mulUp(c.Mag(), r), q)
-	ec := addUp(mulUp(s.Mag(), r), q)
-	sin = Interval{fmax(-1, addDown(s.Lo, -es)), fmin(1, addUp(s.Hi, es))}
-	cos = Interval{fmax(-1, addDown(c.Lo, -ec)), fmin(1, addUp(c.Hi, ec))}
-	return sin, cos
+	// |c|·r + r²/2 ≤ (|c| + 2⁻²¹)·r, as r ≤ thinRadius = 2⁻²⁰.
+	es := mulUp(addUp(c.Mag(), 0x1p-21), r)
+	ec := mulUp(addUp(s.Mag(), 0x1p-21), r)
+	sLo, sHi := addOut(s.Lo, -es, s.Hi, es)
+	cLo, cHi := addOut(c.Lo, -ec, c.Hi, ec)
+	return Interval{fmax(-1, sLo), fmin(1, sHi)}, Interval{fmax(-1, cLo), fmin(1, cHi)}
+}
+
+// cosThin is Cos with one call to math.Cos for an interval of radius
+// r ≤ thinRadius about its midpoint m (else it is Cos):
+// |cos x - cos m| ≤ |sin m|·r + r²/2 ≤ r + r²/2 (Taylor, |cos”| ≤ 1).
+func cosThin(x Interval) Interval {
+	if !x.IsFinite() {
+		return Cos(x)
+	}
+	m := x.Mid()
+	r := fmax(addUp(x.Hi, -m), addUp(m, -x.Lo))
+	if r > thinRadius {
+		return Cos(x)
+	}
+	c := cosPoint(m)
+	if r == 0 {
+		return c
+	}
+	e := mulUp(r, 1+0x1p-20) // ≥ r + r²/2, as r ≤ 2⁻²⁰
+	lo, hi := addOut(c.Lo, -e, c.Hi, e)
+	return Interval{fmax(-1, lo), fmin(1, hi)}
 }
 
 // sameStrictSign reports whether a and b lie both in (0, ∞) or both in
@@ -457,8 +479,20 @@ func Tanh(x Interval) Interval {
 }
 
 // Sech returns sech x = 1/cosh x (even, decreasing in |x|, 1 at 0).
+//
+// A thin interval (width d ≤ 2⁻⁴⁰, a point computed in interval
+// arithmetic) takes one evaluation, at a.Lo: sech
+// decreases on [0, ∞) with |d ln sech/dx| = tanh x ≤ 1, so
+// sech(a.Hi) ≥ sech(a.Lo)·e^{-d} ≥ sech(a.Lo)·(1 - d).
 func Sech(x Interval) Interval {
 	a := x.Abs()
+	if d := addUp(a.Hi, -a.Lo); d <= 0x1p-40 {
+		lo, hi := sechBounds(a.Lo)
+		if d > 0 {
+			lo = mulDown(lo, addDown(1, -d))
+		}
+		return Interval{lo, hi}
+	}
 	_, hi := sechBounds(a.Lo)
 	lo, _ := sechBounds(a.Hi)
 	return Interval{lo, hi}

@@ -357,6 +357,14 @@ func (t EnvelopeTerm) tail(d, h float64) float64 {
 		// B is non-increasing, so B(d) ≤ B(h) ≤ C: no need for C.
 		return t.rayFrom(d, h)
 	}
+	var b float64 // B(d), for d > 0
+	if d > 0 {
+		// C ≥ g(0) ≥ A: when B(d) ≤ A, min(B(d), C) = B(d), and C
+		// (two more ray bounds) need not be computed.
+		if b = t.rayFrom(d, h); b <= t.Amplitude {
+			return b
+		}
+	}
 	g0 := t.at(0)
 	var c float64
 	if t.Plateau == 0 {
@@ -368,7 +376,7 @@ func (t EnvelopeTerm) tail(d, h float64) float64 {
 	if d <= 0 {
 		return c
 	}
-	return math.Min(t.rayFrom(d, h), c)
+	return math.Min(b, c)
 }
 
 // RayTail returns an upper bound, valid for every start point x0 in the
@@ -390,6 +398,26 @@ func (e Envelope) RayTail(x0 Interval, dir int, h float64) float64 {
 			d = x0.AddFloat(-t.Center).Neg().Lo
 		}
 		s = addUp(s, t.tail(d, h))
+	}
+	return s
+}
+
+// rayTails is RayTail(right, 1, h) + RayTail(left, -1, h), rounded up. An
+// exponential term whose two rays both start beyond its plateau, the usual
+// case, shares the denominator 1 - e^{-αh} of rayFrom between them.
+func (e Envelope) rayTails(right, left Interval, h float64) float64 {
+	s := 0.0
+	for _, t := range e {
+		dR := addDown(right.AddFloat(-t.Center).Lo, -t.Plateau)
+		dL := addDown(left.AddFloat(-t.Center).Neg().Lo, -t.Plateau)
+		if t.Decay == Exponential && dR >= h && dL >= h && t.Amplitude > 0 {
+			// A·(e^{-α dR} + e^{-α dL})/(1 - e^{-αh}), as rayFrom.
+			num := Exp(Point(dR).Scale(-t.Rate)).Add(Exp(Point(dL).Scale(-t.Rate)))
+			den := Expm1(Point(h).Scale(-t.Rate)).Neg()
+			s = addUp(s, mulUp(t.Amplitude, num.Div(den).Hi))
+			continue
+		}
+		s = addUp(s, addUp(t.tail(right.AddFloat(-t.Center).Lo, h), t.tail(left.AddFloat(-t.Center).Neg().Lo, h)))
 	}
 	return s
 }
@@ -456,7 +484,8 @@ func (t EnvelopeTerm) estimate(d, h float64) float64 {
 		}
 		a := 1 + d/t.Width
 		c := h / t.Width
-		return A * (math.Pow(a, -t.Power) + math.Pow(a, 1-t.Power)/(c*(t.Power-1)))
+		// a^{-q} + a^{1-q}/(c(q-1)) with one power.
+		return A * powNegEstimate(a, t.Power) * (1 + a/(c*(t.Power-1)))
 	case Compact:
 		if d > t.Width {
 			return 0
@@ -464,6 +493,20 @@ func (t EnvelopeTerm) estimate(d, h float64) float64 {
 		return A * (math.Floor((t.Width-d)/h) + 1)
 	}
 	return math.Inf(1)
+}
+
+// powNegEstimate returns a^{-q} in float64 for a ≥ 1, q > 0 (not a bound):
+// by repeated multiplication for small integer q (the B-spline orders),
+// math.Pow otherwise.
+func powNegEstimate(a, q float64) float64 {
+	if q == math.Trunc(q) && q <= 16 {
+		r := 1.0
+		for range int(q) {
+			r *= a
+		}
+		return 1 / r
+	}
+	return math.Pow(a, -q)
 }
 
 // RayEstimate approximates RayTail at the midpoint of x0, in float64; it is

@@ -42,7 +42,8 @@ func (x Interval) String() string {
 
 // IsFinite reports whether both endpoints are finite numbers.
 func (x Interval) IsFinite() bool {
-	return !math.IsInf(x.Lo, 0) && !math.IsInf(x.Hi, 0) && !math.IsNaN(x.Lo) && !math.IsNaN(x.Hi)
+	// A NaN fails both comparisons.
+	return math.Abs(x.Lo) <= math.MaxFloat64 && math.Abs(x.Hi) <= math.MaxFloat64
 }
 
 // Contains reports whether v lies in x.
@@ -128,17 +129,20 @@ func (x Interval) Abs() Interval {
 
 // Add returns x + y.
 func (x Interval) Add(y Interval) Interval {
-	return Interval{addDown(x.Lo, y.Lo), addUp(x.Hi, y.Hi)}
+	lo, hi := addOut(x.Lo, y.Lo, x.Hi, y.Hi)
+	return Interval{lo, hi}
 }
 
 // Sub returns x - y.
 func (x Interval) Sub(y Interval) Interval {
-	return Interval{addDown(x.Lo, -y.Hi), addUp(x.Hi, -y.Lo)}
+	lo, hi := subOut(x.Lo, y.Hi, x.Hi, y.Lo)
+	return Interval{lo, hi}
 }
 
 // AddFloat returns x + v.
 func (x Interval) AddFloat(v float64) Interval {
-	return Interval{addDown(x.Lo, v), addUp(x.Hi, v)}
+	lo, hi := addOut(x.Lo, v, x.Hi, v)
+	return Interval{lo, hi}
 }
 
 // Mul returns x * y. A zero endpoint times an infinite one counts as zero,
@@ -149,28 +153,28 @@ func (x Interval) Mul(y Interval) Interval {
 	case x.Lo >= 0:
 		switch {
 		case y.Lo >= 0:
-			return Interval{mulDown(x.Lo, y.Lo), mulUp(x.Hi, y.Hi)}
+			return mulIv(x.Lo, y.Lo, x.Hi, y.Hi)
 		case y.Hi <= 0:
-			return Interval{mulDown(x.Hi, y.Lo), mulUp(x.Lo, y.Hi)}
+			return mulIv(x.Hi, y.Lo, x.Lo, y.Hi)
 		default:
-			return Interval{mulDown(x.Hi, y.Lo), mulUp(x.Hi, y.Hi)}
+			return mulIv(x.Hi, y.Lo, x.Hi, y.Hi)
 		}
 	case x.Hi <= 0:
 		switch {
 		case y.Lo >= 0:
-			return Interval{mulDown(x.Lo, y.Hi), mulUp(x.Hi, y.Lo)}
+			return mulIv(x.Lo, y.Hi, x.Hi, y.Lo)
 		case y.Hi <= 0:
-			return Interval{mulDown(x.Hi, y.Hi), mulUp(x.Lo, y.Lo)}
+			return mulIv(x.Hi, y.Hi, x.Lo, y.Lo)
 		default:
-			return Interval{mulDown(x.Lo, y.Hi), mulUp(x.Lo, y.Lo)}
+			return mulIv(x.Lo, y.Hi, x.Lo, y.Lo)
 		}
 	}
 	// x contains 0 in its interior.
 	switch {
 	case y.Lo >= 0:
-		return Interval{mulDown(x.Lo, y.Hi), mulUp(x.Hi, y.Hi)}
+		return mulIv(x.Lo, y.Hi, x.Hi, y.Hi)
 	case y.Hi <= 0:
-		return Interval{mulDown(x.Hi, y.Lo), mulUp(x.Lo, y.Lo)}
+		return mulIv(x.Hi, y.Lo, x.Lo, y.Lo)
 	}
 	return Interval{
 		fmin(mulDown(x.Lo, y.Hi), mulDown(x.Hi, y.Lo)),
@@ -178,21 +182,53 @@ func (x Interval) Mul(y Interval) Interval {
 	}
 }
 
+// mulPos returns x·y for x, y ⊆ [0, ∞] (the caller's invariant): Mul
+// without its sign cases, one call.
+func (x Interval) mulPos(y Interval) Interval {
+	lo, hi := mulOut(x.Lo, y.Lo, x.Hi, y.Hi)
+	return Interval{lo, hi}
+}
+
+// mulIv is the interval [mulDown(a, b), mulUp(c, d)].
+func mulIv(a, b, c, d float64) Interval {
+	lo, hi := mulOut(a, b, c, d)
+	return Interval{lo, hi}
+}
+
 // Scale returns v * x for a float64 v; a NaN v gives Entire.
 func (x Interval) Scale(v float64) Interval {
+	var lo, hi float64
 	switch {
 	case v >= 0:
-		return Interval{mulDown(x.Lo, v), mulUp(x.Hi, v)}
+		lo, hi = mulOut(x.Lo, v, x.Hi, v)
 	case v < 0:
-		return Interval{mulDown(x.Hi, v), mulUp(x.Lo, v)}
+		lo, hi = mulOut(x.Hi, v, x.Lo, v)
+	default:
+		return entire
 	}
-	return entire
+	return Interval{lo, hi}
+}
+
+// scale2 returns k·x for k = ±2^j (as 0.5, -0.5, 2): exact, with no
+// rounding to direct, unless an endpoint is subnormal-small or the product
+// overflows; then it is Scale.
+func (x Interval) scale2(k float64) Interval {
+	lo, hi := x.Lo*k, x.Hi*k
+	if k < 0 {
+		lo, hi = hi, lo
+	}
+	if (x.Lo == 0 || math.Abs(x.Lo) >= 0x1p-1020) && (x.Hi == 0 || math.Abs(x.Hi) >= 0x1p-1020) &&
+		math.Abs(lo) <= math.MaxFloat64 && math.Abs(hi) <= math.MaxFloat64 {
+		return Interval{lo, hi}
+	}
+	return x.Scale(k)
 }
 
 // Sqr returns {v² : v in x}, tighter than x.Mul(x) when x contains 0.
 func (x Interval) Sqr() Interval {
 	a := x.Abs()
-	return Interval{mulDown(a.Lo, a.Lo), mulUp(a.Hi, a.Hi)}
+	lo, hi := mulOut(a.Lo, a.Lo, a.Hi, a.Hi)
+	return Interval{lo, hi}
 }
 
 // Div returns x / y. If y contains 0 the result is Entire.

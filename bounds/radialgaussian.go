@@ -105,13 +105,14 @@ func (g RadialGaussian) Spatial() RadialEnvelope {
 }
 
 // Spectral is the modulus of the transform: a Gaussian of |ξ| with
-// amplitude (σ√(2π))^n and width 1/σ (rounded down).
+// amplitude (σ√(2π))^n and width 1/σ, rounded up (a wider Gaussian is
+// larger, so the envelope stays an upper bound).
 func (g RadialGaussian) Spectral() RadialEnvelope {
 	n := len(g.Center)
 	return RadialEnvelope{
 		Center: make([]float64, n),
 		Profile: Envelope{{Decay: Gaussian, Amplitude: SqrtTwoPi.Scale(g.Sigma).IntPow(n).Hi,
-			Width: divDown(1, g.Sigma)}},
+			Width: divUp(1, g.Sigma)}},
 	}
 }
 
@@ -152,5 +153,5 @@ func (s shiftedGaussian) Spatial() Envelope {
 }
 
 func (s shiftedGaussian) Spectral() Envelope {
-	return Envelope{{Decay: Gaussian, Amplitude: SqrtTwoPi.Scale(s.sigma).Hi, Width: divDown(1, s.sigma)}}
+	return Envelope{{Decay: Gaussian, Amplitude: SqrtTwoPi.Scale(s.sigma).Hi, Width: divUp(1, s.sigma)}}
 }

@@ -23,17 +23,20 @@ import "math"
 // exceeds MaxFloat64, so MaxFloat64 is a valid lower bound.
 
 // nextUp returns the least float64 greater than x (x itself for +Inf, NaN).
+// The cases are tested on the bits, most common first: +0 and positive
+// finite numbers step up by one unit of their bits (+0 becomes the least
+// subnormal), negative ones down by one (-Inf becomes -MaxFloat64).
 func nextUp(x float64) float64 {
+	b := math.Float64bits(x)
 	switch {
-	case x != x || x == math.Inf(1):
-		return x
-	case x == 0:
+	case b < 0x7FF0000000000000: // +0 or positive finite
+		return math.Float64frombits(b + 1)
+	case b > 0x8000000000000000 && b <= 0xFFF0000000000000: // negative, not -0, not NaN
+		return math.Float64frombits(b - 1)
+	case b == 0x8000000000000000: // -0
 		return math.SmallestNonzeroFloat64
-	case x > 0:
-		return math.Float64frombits(math.Float64bits(x) + 1)
-	default:
-		return math.Float64frombits(math.Float64bits(x) - 1)
 	}
+	return x // +Inf, NaN
 }
 
 // nextDown returns the greatest float64 less than x (x itself for -Inf, NaN).
@@ -46,7 +49,8 @@ const minExact = 0x1p-968
 
 // addUp returns an upper bound on a + b: RN(a+b) if that is already above
 // the exact sum, else the next float64. +Inf + -Inf gives +Inf.
-// The fast path is small enough to be inlined.
+// (Too large for the inliner with its slow path; interval operations use
+// addOut, one call for both endpoints.)
 func addUp(a, b float64) float64 {
 	s := a + b
 	// TwoSum error e = (a+b) - s; NaN when s or an operand is infinite.
@@ -69,6 +73,39 @@ func addDown(a, b float64) float64 {
 	return stepDown(s)
 }
 
+// addOut returns addDown(a, b) and addUp(c, d) in one call: the endpoints
+// of an interval sum. Interval operations call it (and mulOut) so that
+// they cost one function call, not two, and are small enough to inline.
+func addOut(a, b, c, d float64) (lo, hi float64) {
+	lo, hi = a+b, c+d
+	bb := lo - a
+	if e := (a - (lo - bb)) + (b - bb); !(e >= 0 && e <= math.MaxFloat64) {
+		lo = stepDown(lo)
+	}
+	dd := hi - c
+	if e := (c - (hi - dd)) + (d - dd); !(e <= 0 && e >= -math.MaxFloat64) {
+		hi = stepUp(hi)
+	}
+	return lo, hi
+}
+
+// subOut returns addDown(a, -b) and addUp(c, -d) in one call (see addOut).
+func subOut(a, b, c, d float64) (lo, hi float64) {
+	return addOut(a, -b, c, -d)
+}
+
+// mulOut returns mulDown(a, b) and mulUp(c, d) in one call (see addOut).
+func mulOut(a, b, c, d float64) (lo, hi float64) {
+	lo, hi = a*b, c*d
+	if !(math.FMA(a, b, -lo) >= 0 && math.Abs(lo) >= minExact) {
+		lo = mulDownSlow(a, b, lo)
+	}
+	if !(math.FMA(c, d, -hi) <= 0 && math.Abs(hi) >= minExact) {
+		hi = mulUpSlow(c, d, hi)
+	}
+	return lo, hi
+}
+
 // stepUp returns nextUp(s), and +Inf for a NaN s (from +Inf + -Inf).
 func stepUp(s float64) float64 {
 	if s != s {
@@ -87,8 +124,8 @@ func stepDown(s float64) float64 {
 
 // mulUp and mulDown treat 0 times ±Inf as 0 (IEEE 1788) and are exact when
 // a factor is 0 or the product is exact; other products round outward.
-// The fast path (|a·b| ≥ 2⁻⁹⁶⁸, the FMA error on the right side) is small
-// enough to be inlined.
+// The fast path is |a·b| ≥ 2⁻⁹⁶⁸ with the FMA error on the right side;
+// interval operations use mulOut, one call for both endpoints.
 func mulUp(a, b float64) float64 {
 	p := a * b
 	// e = a·b - p; -Inf when a finite product overflowed to +Inf, NaN when

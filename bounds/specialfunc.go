@@ -20,22 +20,71 @@ const seriesRadius = 1
 // z ⊆ [-1, 1]. S(x²) = sinh(x)/x and S(-x²) = sin(x)/x (DLMF 4.33.1 and
 // 4.19.1, the Maclaurin series of sinh and sin, from memory).
 //
-// Truncation after the term t_n: the ratio of consecutive terms is at most
-// |z|/((2n+2)(2n+3)) ≤ 1/2, so the remainder is at most 2|t_n|.
+// With m = max|z|, the first n terms are summed, n the least with
+// t_n = m^n/(2n+1)! < 2⁻⁶⁰; the ratio of consecutive terms is at most
+// m/((2n+2)(2n+3)) ≤ 1/2, so the rest is at most R = 2t_n. The polynomial
+// P(z) = Σ_{k<n} z^k/(2k+1)! is evaluated by Horner's rule with directed
+// rounding at z.Lo, which gives both bounds of P(z.Lo). S and P increase
+// on [-1, 1] (their derivatives are at least 1/6 - Σ_{k≥2} k/(2k+1)! > 0)
+// and S' ≤ Σ_{k≥1} k/(2k+1)! < 1/5 there, so
+//
+//	S(z) ⊆ [P(z.Lo) - R, P(z.Lo) + (z.Hi - z.Lo)/5 + R].
 func sinhcPowerSeries(z Interval) Interval {
-	sum := Point(1)
-	t := Point(1)
-	for k := 0; k < 30; k++ { // 10 terms suffice for |z| ≤ 1
-		t = t.Mul(z).Div(Point(float64((2*k + 2) * (2*k + 3))))
-		m := t.Mag()
-		if m < 0x1p-60 {
-			r := mulUp(2, m)
-			return sum.Add(Interval{-r, r})
-		}
-		sum = sum.Add(t)
+	m := fmax(math.Abs(z.Lo), math.Abs(z.Hi))
+	if !(m <= 1) {
+		return entire // z outside [-1, 1] or NaN: not reached from this file
 	}
-	return entire // z outside [-1, 1] or NaN: not reached from this file
+	// The least n with m ≤ sinhcReach[n], so that t_n < 2⁻⁶⁰ and R ≤ 2⁻⁵⁹.
+	n := 1
+	for m > sinhcReach[n] {
+		n++
+	}
+	const rest = 0x1p-59
+	x := z.Lo
+	lo, hi := sinhcCoef[n-1].Lo, sinhcCoef[n-1].Hi
+	for k := n - 2; k >= 0; k-- {
+		c := sinhcCoef[k]
+		if x >= 0 {
+			lo, hi = addDown(c.Lo, mulDown(x, lo)), addUp(c.Hi, mulUp(x, hi))
+		} else {
+			lo, hi = addDown(c.Lo, mulDown(x, hi)), addUp(c.Hi, mulUp(x, lo))
+		}
+	}
+	if w := addUp(z.Hi, -z.Lo); w > 0 {
+		hi = addUp(hi, mulUp(w, 0.2))
+	}
+	return Interval{addDown(lo, -rest), addUp(hi, rest)}
 }
+
+// sinhcReach[n] is a float64 r ≤ 1 with r^n/(2n+1)! < 2⁻⁶⁰, checked in
+// directed rounding; sinhcReach[10] = 1 (1/21! < 2⁻⁶⁰).
+var sinhcReach = func() (r [len(sinhcCoef)]float64) {
+	below := func(m float64, n int) bool { // m^n·c_n < 2⁻⁶⁰, rounded up
+		p := sinhcCoef[n].Hi
+		for range n {
+			p = mulUp(p, m)
+		}
+		return p < 0x1p-60
+	}
+	for n := 1; n < len(r); n++ {
+		m := math.Min(1, math.Exp((math.Log(0x1p-60)-math.Log(sinhcCoef[n].Hi))/float64(n)))
+		for !below(m, n) {
+			m *= 1 - 0x1p-20
+		}
+		r[n] = m
+	}
+	return r
+}()
+
+// sinhcCoef[k] encloses 1/(2k+1)!, for k up to the last term
+// sinhcPowerSeries can need at |z| = 1 (1/21! < 2⁻⁶⁰ ≤ 1/19!).
+var sinhcCoef = func() (c [11]Interval) {
+	c[0] = Point(1)
+	for k := 1; k < len(c); k++ {
+		c[k] = c[k-1].Div(Point(float64((2 * k) * (2*k + 1))))
+	}
+	return c
+}()
 
 // sinhcPoint encloses sinh(v)/v at a point (1 at 0).
 func sinhcPoint(v float64) Interval {
@@ -53,6 +102,9 @@ func sinhcPoint(v float64) Interval {
 // The series is used for |x| ≤ 1, sinh(x)/x in interval arithmetic beyond.
 func Sinhc(x Interval) Interval {
 	a := x.Abs()
+	if a.Lo == a.Hi {
+		return sinhcPoint(a.Lo)
+	}
 	return Interval{sinhcPoint(a.Lo).Lo, sinhcPoint(a.Hi).Hi}
 }
 
@@ -86,7 +138,10 @@ func Sinc(x Interval) Interval {
 	a := x.Abs()
 	var r Interval
 	have := false
-	if a.Lo <= sincFirstMin {
+	switch {
+	case a.Lo == a.Hi && a.Lo <= sincFirstMin:
+		return sincPoint(a.Lo)
+	case a.Lo <= sincFirstMin:
 		r = Interval{sincPoint(fmin(a.Hi, sincFirstMin)).Lo, sincPoint(a.Lo).Hi}
 		have = true
 	}
@@ -131,8 +186,21 @@ func xOverSinhPoint(v float64) Interval {
 // |x|; the transform of sech² is πξ/2 / sinh(πξ/2) times 2). It is
 // 1/Sinhc(x), evaluated by the series of Sinhc for |x| ≤ 1 and as
 // 2|x| e^(-|x|)/(1 - e^(-2|x|)) beyond, which does not overflow.
+//
+// A thin interval (width d ≤ 2⁻⁴⁰, a point computed in interval
+// arithmetic) takes one evaluation, at a.Lo: on
+// (0, ∞), d ln(x/sinh x)/dx = 1/x - coth x lies in (-1, 0) (the Langevin
+// function coth x - 1/x is between 0 and 1), so the value at a.Hi is at
+// least the value at a.Lo times e^{-d} ≥ 1 - d.
 func XOverSinh(x Interval) Interval {
 	a := x.Abs()
+	if d := addUp(a.Hi, -a.Lo); d <= 0x1p-40 {
+		v := xOverSinhPoint(a.Lo)
+		if d > 0 {
+			v.Lo = mulDown(v.Lo, addDown(1, -d))
+		}
+		return v
+	}
 	return Interval{xOverSinhPoint(a.Hi).Lo, xOverSinhPoint(a.Lo).Hi}
 }
 
@@ -194,7 +262,27 @@ func besselI0Bounds(a float64) (lo, hi float64) {
 // besselI0Quarter bounds I₀ given q = a²/4 in [qLo, qHi], qLo ≥ 0: the
 // series of besselI0Bounds in q, for callers (the Kaiser-Bessel window)
 // that can form q without squaring a root.
+//
+// Up to q = besselI0Reach[len-1] (about 560, a ≈ 47) a polynomial of
+// tabulated length is evaluated instead, by Horner's rule: n is the least
+// with qHi ≤ besselI0Reach[n], so that t_n = q^n/(n!)² < 2⁻⁶⁰ and the ratio
+// of later terms is at most q/(n+1)² ≤ 1/2; the rest is then below
+// 2·t_n < 2⁻⁵⁹ ≤ 2⁻⁵⁹·I₀. All coefficients are positive and q ≥ 0, so the
+// lower bound is Horner's rule at qLo rounded down and the upper bound at
+// qHi rounded up.
 func besselI0Quarter(qLo, qHi float64) (lo, hi float64) {
+	if qHi <= besselI0Reach[len(besselI0Reach)-1] {
+		n := 1
+		for qHi > besselI0Reach[n] {
+			n++
+		}
+		lo, hi = besselI0Coef[n-1].Lo, besselI0Coef[n-1].Hi
+		for k := n - 2; k >= 0; k-- {
+			lo = addDown(besselI0Coef[k].Lo, mulDown(qLo, lo))
+			hi = addUp(besselI0Coef[k].Hi, mulUp(qHi, hi))
+		}
+		return lo, addUp(hi, 0x1p-59)
+	}
 	tLo, tHi := 1.0, 1.0
 	lo, hi = 1, 1
 	// a ≤ 715 needs fewer than 600 terms; the cap only guards the loop.
@@ -218,6 +306,35 @@ func besselI0Quarter(qLo, qHi float64) (lo, hi float64) {
 	return lo, math.Inf(1)
 }
 
+// besselI0Coef[k] encloses 1/(k!)², the coefficient of q^k in I₀.
+var besselI0Coef = func() (c [81]Interval) {
+	c[0] = Point(1)
+	for k := 1; k < len(c); k++ {
+		c[k] = c[k-1].Div(Point(float64(k * k)))
+	}
+	return c
+}()
+
+// besselI0Reach[n] is a float64 r with r^n/(n!)² < 2⁻⁶⁰ and r ≤ (n+1)²/2,
+// checked in directed rounding (besselI0Reach[0] = 0).
+var besselI0Reach = func() (r [len(besselI0Coef)]float64) {
+	below := func(q float64, n int) bool { // q^n·c_n < 2⁻⁶⁰, rounded up
+		p := besselI0Coef[n].Hi
+		for range n {
+			p = mulUp(p, q)
+		}
+		return p < 0x1p-60
+	}
+	for n := 1; n < len(r); n++ {
+		q := math.Min(float64((n+1)*(n+1))/2, math.Exp((math.Log(0x1p-60)-math.Log(besselI0Coef[n].Hi))/float64(n)))
+		for !below(q, n) {
+			q *= 1 - 0x1p-20
+		}
+		r[n] = q
+	}
+	return r
+}()
+
 // BesselI0 returns the modified Bessel function of the first kind of order
 // zero (even, increasing in |x|, I₀(0) = 1), which normalizes the
 // Kaiser–Bessel window:
@@ -230,7 +347,11 @@ func besselI0Quarter(qLo, qHi float64) (lo, hi float64) {
 // result is [MaxFloat64, +Inf].
 func BesselI0(x Interval) Interval {
 	a := x.Abs()
-	lo, _ := besselI0Bounds(a.Lo)
-	_, hi := besselI0Bounds(a.Hi)
+	if !(a.Hi <= besselI0Overflow) { // also NaN
+		lo, _ := besselI0Bounds(a.Lo)
+		return Interval{lo, math.Inf(1)}
+	}
+	// One series: its lower bound at a.Lo, its upper bound at a.Hi.
+	lo, hi := besselI0Quarter(mulDown(mulDown(a.Lo, a.Lo), 0.25), mulUp(mulUp(a.Hi, a.Hi), 0.25))
 	return Interval{lo, hi}
 }
