@@ -89,7 +89,7 @@ func TestBSplineBlockBudget(t *testing.T) {
 }
 
 // bigBSplineCopies returns Σ_{j<J} |F(x + jp)| for the order-m B-spline,
-// F(ξ) = (sin(ξ/2)/(ξ/2))^m (de Boor 1978, from memory), in 256-bit
+// F(ξ) = (sin(ξ/2)/(ξ/2))^m (de Boor 1978, from memory), in 320-bit
 // arithmetic.
 func bigBSplineCopies(m int, x, p float64, J int64) float64 {
 	sum := bigref.Int(0)
@@ -107,7 +107,7 @@ func bigBSplineCopies(m int, x, p float64, J int64) float64 {
 }
 
 // TestBSplineAliasRay checks the closed-form bound of a whole ray of alias
-// copies against its first 3000 copies summed in 256-bit arithmetic (a
+// copies against its first 300 copies summed in 320-bit arithmetic (a
 // lower bound of the ray the bound must exceed), at the steps of the
 // partition of unity and elsewhere, and reports how far above it is.
 func TestBSplineAliasRay(t *testing.T) {
@@ -123,14 +123,14 @@ func TestBSplineAliasRay(t *testing.T) {
 				worst := 0.0
 				for _, x := range []float64{x0.Lo, x0.Hi} {
 					for _, p := range []float64{P.Lo, P.Hi} {
-						worst = math.Max(worst, bigBSplineCopies(m, x, p, 3000))
+						worst = math.Max(worst, bigBSplineCopies(m, x, p, 300))
 					}
 				}
 				if !(got >= worst) {
-					t.Errorf("m=%d h=%g ξ=%g: ray bound %g below the first 3000 copies %g", m, tt.h, tt.xi, got, worst)
+					t.Errorf("m=%d h=%g ξ=%g: ray bound %g below the first 300 copies %g", m, tt.h, tt.xi, got, worst)
 				}
 				if testing.Verbose() && x0.Lo > P.Lo {
-					t.Logf("m=%d h=%.6g ξ=%g: ray bound %.3g, first 3000 copies %.3g", m, tt.h, tt.xi, got, worst)
+					t.Logf("m=%d h=%.6g ξ=%g: ray bound %.3g, first 300 copies %.3g", m, tt.h, tt.xi, got, worst)
 				}
 			}
 		}
@@ -139,7 +139,7 @@ func TestBSplineAliasRay(t *testing.T) {
 
 // TestBSplineRayBudget checks FamilyBudget's aliasing for every shift
 // against the exact error of the infinite grid, |h Σ_k M_m(s + hk) - 1|
-// (the integral of M_m is 1; de Boor 1978, from memory), summed in 256-bit
+// (the integral of M_m is 1; de Boor 1978, from memory), summed in 320-bit
 // arithmetic at 33 shifts across the cell: at the steps of the partition of
 // unity (h = 1, 1/2, 1/3) the error is 0 and the bound must be of the
 // order of rounding; elsewhere the bound must not be below the error (up
