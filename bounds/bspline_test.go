@@ -465,3 +465,23 @@ func ratIn(iv Interval, v *big.Rat) bool {
 	hi.SetFloat64(iv.Hi)
 	return lo.Cmp(v) <= 0 && v.Cmp(hi) <= 0
 }
+
+// TestPartitionOfUnityExactAtKnots checks that the alias sums of the hat
+// and the quadratic B-spline at h = 1, zero shift, are exact: their samples
+// at the integers (1; 3/4, 1/8, 1/8, de Boor 1978, from memory) and their
+// transform at 0 (sin(x)/x → 1, DLMF 4.19.1) are binary fractions, so
+// T = F = 1 and the enclosure of T - F is the single point 0.
+func TestPartitionOfUnityExactAtKnots(t *testing.T) {
+	if s := Sinc(Point(0)); s != Point(1) {
+		t.Errorf("Sinc(0) = %v, want exactly 1", s)
+	}
+	for _, m := range []int{2, 3} {
+		r, err := AliasSum(context.Background(), BSplineFamily{Order: m}, Grid{Step: 1}, 0, Settings{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if r.Error != (Complex{}) || r.Exact != RealC(Point(1)) {
+			t.Errorf("m=%d: F = %v, T - F = %v, want exactly 1 and 0", m, r.Exact, r.Error)
+		}
+	}
+}

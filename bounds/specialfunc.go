@@ -34,6 +34,9 @@ func sinhcPowerSeries(z Interval) Interval {
 	if !(m <= 1) {
 		return entire // z outside [-1, 1] or NaN: not reached from this file
 	}
+	if m == 0 {
+		return Point(1) // S(0) = 1 exactly: transforms at ξ = 0 stay exact
+	}
 	// The least n with m ≤ sinhcReach[n], so that t_n < 2⁻⁶⁰ and R ≤ 2⁻⁵⁹.
 	n := 1
 	for m > sinhcReach[n] {
